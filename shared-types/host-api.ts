@@ -1,0 +1,102 @@
+/**
+ * The one door between the renderer and the machine. Electron answers it over IPC
+ * (electron/preload.ts + electron/main.ts); browser mode answers the same calls over
+ * loopback HTTP (electron/serve.ts). All behaviour lives in electron/host/.
+ *
+ * Files are never addressed by path from the renderer after they are opened: the host
+ * hands out an opaque `fileId` per file the analyst chose, and serves only those.
+ */
+import type { FootageProbe } from './domain.ts';
+
+export type HostMode = 'electron' | 'browser';
+
+export interface HostInfo {
+  mode: HostMode;
+  appVersion: string;
+  /** Local user name, written into the audit trail. */
+  userName: string;
+  /** True when the host can show the system's own open/save dialogs (Electron). */
+  nativeDialogs: boolean;
+  /** Whether the page is cross-origin isolated (needed by the multi-thread ffmpeg core). */
+  crossOriginIsolated?: boolean;
+}
+
+/** A file the analyst opened; the host serves its bytes at `url` (byte ranges supported). */
+export interface OpenedFile {
+  fileId: string;
+  name: string;
+  /** Absolute path on the analyst's machine, shown to them and kept for relinking. */
+  path: string;
+  size: number;
+  /** Modification time, ms since the epoch. */
+  mtimeMs: number;
+  /** URL the renderer fetches or plays: wmfile://... in Electron, /files/... in browser mode. */
+  url: string;
+}
+
+export interface DirectoryEntry {
+  name: string;
+  path: string;
+  kind: 'file' | 'directory';
+  size?: number;
+}
+
+export interface DirectoryListing {
+  path: string;
+  parent?: string;
+  entries: DirectoryEntry[];
+}
+
+export type FilePurpose = 'tracking' | 'events' | 'footage' | 'mapping' | 'project' | 'any';
+
+export interface DemoMatch {
+  title: string;
+  tracking: OpenedFile;
+  events: OpenedFile;
+  footage: OpenedFile[];
+  /** The truth file, so the analyst can compare (README says how to view it). */
+  truth?: OpenedFile;
+}
+
+export interface SaveRequest {
+  /** Suggested file name, e.g. "rejected-rows.csv". */
+  suggestedName: string;
+  /** Directory to write into; when absent the host asks (Electron) or uses the last one. */
+  directory?: string;
+  bytes: Uint8Array;
+  /** Replace an existing file; without it the host refuses and says so. */
+  overwrite?: boolean;
+}
+
+export interface SaveResult {
+  path: string;
+  bytesWritten: number;
+}
+
+export interface HostApi {
+  info(): Promise<HostInfo>;
+  /** Native dialog (Electron only). Resolves to [] when the analyst cancels. */
+  chooseFiles(purpose: FilePurpose, multiple: boolean): Promise<OpenedFile[]>;
+  /** In-app file chooser (browser mode): list a directory. */
+  listDirectory(path?: string): Promise<DirectoryListing>;
+  /** In-app file chooser (browser mode): the analyst picked these paths. */
+  openPaths(paths: string[]): Promise<OpenedFile[]>;
+  /** The demo match shipped in fixtures/demo, already opened. */
+  demoMatch(): Promise<DemoMatch | null>;
+  /** Container, codecs and the real per-frame PTS table of an opened footage file. */
+  probeFootage(fileId: string): Promise<FootageProbe>;
+  /** Atomic write (temporary file, flush, rename); never overwrites without `overwrite`. */
+  saveFile(req: SaveRequest): Promise<SaveResult>;
+}
+
+/** Names of the HostApi calls, used by both adapters to route and validate. */
+export const HOST_CALLS = [
+  'info',
+  'chooseFiles',
+  'listDirectory',
+  'openPaths',
+  'demoMatch',
+  'probeFootage',
+  'saveFile',
+] as const satisfies readonly (keyof HostApi)[];
+export type HostCall = (typeof HOST_CALLS)[number];

@@ -1,0 +1,3 @@
+export * from './domain.ts';
+export * from './host-api.ts';
+export * from './import.ts';
