@@ -9,10 +9,14 @@ export interface CliCommand {
   run(args: string[]): Promise<number>;
 }
 
-const commands: Record<string, () => Promise<{ command: CliCommand }>> = {
-  inspect: () => import('./cli/inspect.ts'),
-  sync: () => import('./cli/sync.ts'),
+// Loaded on demand so one command's dependencies never slow another's start.
+const commandModules: Record<string, string> = {
+  inspect: './cli/inspect.ts',
+  sync: './cli/sync.ts',
 };
+const commands: Record<string, () => Promise<{ command: CliCommand }>> = Object.fromEntries(
+  Object.entries(commandModules).map(([name, rel]) => [name, () => import(new URL(rel, import.meta.url).href)]),
+);
 
 export async function main(argv: string[]): Promise<number> {
   const [name, ...rest] = argv;
