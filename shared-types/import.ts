@@ -116,3 +116,31 @@ export interface Detection {
   confidence: number;
   problems: ImportProblem[];
 }
+
+/** A row the importer could not take, kept so the analyst can save them to a file. */
+export interface RejectedRow {
+  line: number;
+  text: string;
+  reason: string;
+}
+
+/**
+ * Result of one import. All-or-nothing: when `ok` is false, `data` is absent and the
+ * caller stores nothing. Warnings never block; any error does.
+ */
+export interface ImportResult<T> {
+  ok: boolean;
+  data?: T;
+  problems: ImportProblem[];
+  rejectedRows: RejectedRow[];
+  rows: number;
+}
+
+export interface ImportOptions<M> {
+  fileName: string;
+  mapping: M;
+  /** Total bytes, for progress. */
+  bytesTotal?: number;
+  onProgress?: (p: ImportProgress) => void;
+  signal?: AbortSignal;
+}
