@@ -56,9 +56,13 @@ export interface TrackingMapping {
     /** Long layout */
     objectId?: string;
     team?: string;
+    /** Long layout: shirt number column, when ids do not carry it. */
+    shirt?: string;
     x?: string;
     y?: string;
     z?: string;
+    /** JSON Lines: the field holding each frame's array of objects (e.g. "objects"). */
+    objectList?: string;
     /** Wide layout: per-object column pairs, e.g. { id: 'home_7', x: 'home_7_x', y: 'home_7_y' }. */
     objects?: { id: string; x: string; y: string; team?: TeamSide; role?: 'player' | 'ball' }[];
   };
