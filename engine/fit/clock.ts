@@ -1,0 +1,209 @@
+/**
+ * Clock fits: map a source clock onto tracking time, `t_trk = offset + rate * t`, per
+ * period, robustly (Huber IRLS from a Theil–Sen start), with MAD outlier flags, standard
+ * errors, residuals and a leave-one-out check; a jump in the clock splits the period
+ * into segments.
+ */
+import type { AnchorKind, ClockFit, ClockSegment, FitPoint, PeriodId, Seconds } from '../../shared-types/domain.ts';
+import { huberFit, mad, median } from './robust.ts';
+
+/** One pairing to fit: source time t corresponds to tracking time tRef. */
+export interface ClockPair {
+  anchorId: string;
+  refAnchorId?: string;
+  kind: AnchorKind;
+  t: Seconds;
+  tRef: Seconds;
+  /** Relative weight (e.g. anchor confidence); default 1. */
+  weight?: number;
+}
+
+export interface ClockFitOptions {
+  /** Outlier rule: |r - median| > madLimit * 1.4826 * MAD. Default 3.5. */
+  madLimit?: number;
+  /** Floor on the robust scale, seconds: hand-tagged times are never better than this. */
+  minScale?: Seconds;
+  /** Smallest clock jump that splits a period, seconds. Default 0.5 s. */
+  minBreak?: Seconds;
+  /** Fewest points on each side of a break. Default 4. */
+  minSegmentPoints?: number;
+}
+
+const ROBUST = 1.4826;
+
+/**
+ * Fit one segment. `fitClock(pairs, 1) -> ClockSegment` with offset, rate, drift ppm,
+ * standard errors, residuals and outlier flags.
+ */
+export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOptions = {}): ClockSegment {
+  const minScale = opts.minScale ?? 0.02;
+  const madLimit = opts.madLimit ?? 3.5;
+  const sorted = [...pairs].sort((a, b) => a.t - b.t);
+  const n = sorted.length;
+  const ts = sorted.map((p) => p.t);
+  const refs = sorted.map((p) => p.tRef);
+  if (n === 0) throw new Error(`fitClock: period ${period} has no anchor pairs to fit`);
+  if (n === 1) {
+    // One pairing fixes the offset only; the rate is taken as nominal.
+    const p = sorted[0];
+    return segment(period, ts[0], ts[0], p.tRef - p.t, 1, NaN, NaN, [point(p, 0, true)], 0, NaN);
+  }
+  // First pass: robust fit on everything, then flag MAD outliers and refit without them.
+  const first = huberFit(ts, refs, { minScale });
+  const res = first.residuals;
+  const m = median(res);
+  const s = Math.max(minScale, ROBUST * mad(res));
+  const mask = sorted.map((p, i) => (Math.abs(res[i] - m) > madLimit * s ? 0 : (p.weight ?? 1)));
+  const fit = huberFit(ts, refs, { minScale, mask });
+  const points = sorted.map((p, i) => {
+    const fp = point(p, fit.residuals[i], mask[i] > 0);
+    if (!fp.used) fp.rejectedBecause = `MAD outlier: residual ${fit.residuals[i].toFixed(2)} s is beyond ${madLimit} robust SD (${s.toFixed(3)} s)`;
+    return fp;
+  });
+  let ss = 0, used = 0;
+  for (let i = 0; i < n; i++)
+    if (mask[i] > 0) {
+      ss += fit.residuals[i] ** 2;
+      used++;
+    }
+  const w = Float64Array.from(fit.weights, (v, i) => v * (mask[i] > 0 ? sorted[i].weight ?? 1 : 0));
+  return segment(period, ts[0], ts[n - 1], fit.intercept, fit.slope, fit.interceptSe, fit.slopeSe, points,
+    Math.sqrt(ss / Math.max(1, used)), leaveOneOutMax(ts, refs, w));
+}
+
+function point(p: ClockPair, residual: number, used: boolean): FitPoint {
+  return { anchorId: p.anchorId, refAnchorId: p.refAnchorId, kind: p.kind, t: p.t, tRef: p.tRef, residual, used };
+}
+
+function segment(period: PeriodId, fromT: number, toT: number, offset: number, rate: number, offsetSe: number,
+  rateSe: number, points: FitPoint[], rmsResidual: number, leaveOneOutMax: number): ClockSegment {
+  return { period, fromT, toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe, rateSe, rmsResidual, leaveOneOutMax, points };
+}
+
+/**
+ * Largest change of the offset when one point is dropped, holding the final weights:
+ * the weighted sums lose one term each, so all n refits cost O(n).
+ */
+function leaveOneOutMax(xs: number[], ys: number[], w: ArrayLike<number>): number {
+  let S = 0, Sx = 0, Sy = 0, Sxx = 0, Sxy = 0;
+  const x0 = xs.reduce((a, b) => a + b, 0) / xs.length; // centring for conditioning
+  for (let i = 0; i < xs.length; i++) {
+    const x = xs[i] - x0;
+    S += w[i]; Sx += w[i] * x; Sy += w[i] * ys[i]; Sxx += w[i] * x * x; Sxy += w[i] * x * ys[i];
+  }
+  const offsetOf = (s: number, sx: number, sy: number, sxx: number, sxy: number) => {
+    const det = s * sxx - sx * sx;
+    if (det <= 1e-12 * s * sxx) return NaN;
+    const b = (s * sxy - sx * sy) / det;
+    const a = (sy - b * sx) / s; // intercept at x = x0
+    return a - b * x0;
+  };
+  const full = offsetOf(S, Sx, Sy, Sxx, Sxy);
+  let worst = 0;
+  for (let i = 0; i < xs.length; i++) {
+    if (!(w[i] > 0)) continue;
+    const x = xs[i] - x0;
+    const o = offsetOf(S - w[i], Sx - w[i] * x, Sy - w[i] * ys[i], Sxx - w[i] * x * x, Sxy - w[i] * x * ys[i]);
+    if (Number.isFinite(o)) worst = Math.max(worst, Math.abs(o - full));
+  }
+  return worst;
+}
+
+/**
+ * Where a clock jumps: the split of the time-ordered residuals with the largest,
+ * significant step in their (clipped) mean. Returns split indices into the sorted pairs.
+ * `findBreaks(pairs) -> [37]` (a jump between the 37th and 38th pairing)
+ */
+export function findBreaks(pairs: ClockPair[], opts: ClockFitOptions = {}): number[] {
+  const minBreak = opts.minBreak ?? 0.5;
+  const minSide = opts.minSegmentPoints ?? 4;
+  const sorted = [...pairs].sort((a, b) => a.t - b.t);
+  const out: number[] = [];
+  const recurse = (lo: number, hi: number, depth: number) => {
+    if (hi - lo < 2 * minSide || depth > 4) return;
+    const ts = sorted.slice(lo, hi).map((p) => p.t);
+    const refs = sorted.slice(lo, hi).map((p) => p.tRef);
+    // Rate from the median slope of near-neighbour pairs only: few of them straddle a
+    // jump, so a step does not tilt the rate the way a global fit would.
+    const slopes: number[] = [];
+    const reach = Math.min(20, ts.length - 1);
+    for (let i = 0; i < ts.length; i++)
+      for (let j = i + 1; j <= Math.min(ts.length - 1, i + reach); j++)
+        if (ts[j] > ts[i]) slopes.push((refs[j] - refs[i]) / (ts[j] - ts[i]));
+    const rate = median(slopes);
+    // Offsets of each point under that rate; a jump is a step in these.
+    const off = ts.map((t, i) => refs[i] - rate * t);
+    const n = off.length;
+    let best = -1, bestStat = 0, bestStep = 0;
+    // Coarse scan with a stride on long lists, then every split near the coarse best.
+    const stride = Math.max(1, Math.floor(n / 150));
+    const tryAt = (k: number) => {
+      const left = median(off.slice(0, k));
+      const right = median(off.slice(k));
+      const spread = Math.max(opts.minScale ?? 0.02, ROBUST * mad([...off.slice(0, k).map((v) => v - left), ...off.slice(k).map((v) => v - right)]));
+      const step = right - left;
+      const stat = Math.abs(step) / spread;
+      if (stat > bestStat) {
+        bestStat = stat;
+        best = k;
+        bestStep = step;
+      }
+    };
+    for (let k = minSide; k <= n - minSide; k += stride) tryAt(k);
+    if (stride > 1 && best > 0) {
+      const c = best;
+      for (let k = Math.max(minSide, c - stride); k <= Math.min(n - minSide, c + stride); k++) tryAt(k);
+    }
+    if (best > 0 && Math.abs(bestStep) >= minBreak && bestStat > 6) {
+      out.push(lo + best);
+      recurse(lo, lo + best, depth + 1);
+      recurse(lo + best, hi, depth + 1);
+    }
+  };
+  recurse(0, sorted.length, 0);
+  return out.sort((a, b) => a - b);
+}
+
+/**
+ * Fit a whole source clock: per period, split at detected breaks, one segment each.
+ * `fitClocks(pairsByPeriod, 'events') -> ClockFit`
+ */
+export function fitClocks(pairsByPeriod: Map<PeriodId, ClockPair[]>, source: ClockFit['source'], opts: ClockFitOptions = {}): ClockFit {
+  const segments: ClockSegment[] = [];
+  for (const [period, pairs] of [...pairsByPeriod].sort((a, b) => a[0] - b[0])) {
+    if (pairs.length === 0) continue;
+    const sorted = [...pairs].sort((a, b) => a.t - b.t);
+    const cuts = [0, ...findBreaks(sorted, opts), sorted.length];
+    const segs: ClockSegment[] = [];
+    for (let i = 0; i + 1 < cuts.length; i++) segs.push(fitClock(sorted.slice(cuts[i], cuts[i + 1]), period, opts));
+    // Segment edges meet halfway between the last point of one and the first of the next.
+    for (let i = 0; i + 1 < segs.length; i++) {
+      const mid = (segs[i].toT + segs[i + 1].fromT) / 2;
+      segs[i].toT = mid;
+      segs[i + 1].fromT = mid;
+    }
+    segments.push(...segs);
+  }
+  return { source, segments, method: 'huber' };
+}
+
+/** The segment of `fit` that covers source time t in a period (nearest one outside). */
+export function segmentAt(fit: ClockFit, period: PeriodId, t: Seconds): ClockSegment | undefined {
+  let best: ClockSegment | undefined;
+  let bestDist = Infinity;
+  for (const s of fit.segments) {
+    if (s.period !== period) continue;
+    const d = t < s.fromT ? s.fromT - t : t > s.toT ? t - s.toT : 0;
+    if (d < bestDist) {
+      bestDist = d;
+      best = s;
+    }
+  }
+  return best;
+}
+
+/** `mapTime(fit, 1, 120) -> 312.4` (tracking seconds), NaN when the period has no fit. */
+export function mapTime(fit: ClockFit, period: PeriodId, t: Seconds): Seconds {
+  const s = segmentAt(fit, period, t);
+  return s ? s.offset + s.rate * t : NaN;
+}

@@ -1,0 +1,122 @@
+/**
+ * Robust straight-line fits y = a + b x: Theil–Sen (median of pairwise slopes) and Huber
+ * IRLS (iteratively reweighted least squares). Written here rather than taken from a
+ * library because the clock fit needs the final weights, standard errors and cheap
+ * leave-one-out refits, which the npm fits (ml-regression-theil-sen, simple-statistics)
+ * do not expose; the tests compare both against those libraries.
+ */
+
+export interface LineFit {
+  intercept: number;
+  slope: number;
+  /** Standard errors of intercept and slope (NaN when under-determined). */
+  interceptSe: number;
+  slopeSe: number;
+  /** Final IRLS weights (1 = full weight), one per input point. */
+  weights: Float64Array;
+  residuals: Float64Array;
+  /** Robust scale of the residuals (1.4826 * MAD). */
+  scale: number;
+}
+
+/** `median([3, 1, 2]) -> 2` (NaN for an empty list). */
+export function median(values: ArrayLike<number>): number {
+  const a = Float64Array.from(values).sort();
+  const n = a.length;
+  if (n === 0) return NaN;
+  return n % 2 ? a[(n - 1) / 2] : (a[n / 2 - 1] + a[n / 2]) / 2;
+}
+
+/** Median absolute deviation from the median: `mad([1, 2, 3, 4, 100]) -> 1`. */
+export function mad(values: ArrayLike<number>): number {
+  const m = median(values);
+  return median(Array.from(values, (v) => Math.abs(v - m)));
+}
+
+/**
+ * Theil–Sen: slope = median of pairwise slopes, intercept = median of y - slope x.
+ * `theilSen([0, 1, 2], [1, 3, 5]) -> { slope: 2, intercept: 1 }`
+ */
+export function theilSen(xs: ArrayLike<number>, ys: ArrayLike<number>): { slope: number; intercept: number } {
+  const n = xs.length;
+  // O(n²) pairs; above ~600 points use a deterministic stride subset of pairs (still
+  // ~180k slopes), which keeps the estimate's breakdown point and stays fast.
+  const step = n > 600 ? Math.ceil(n / 600) : 1;
+  const slopes: number[] = [];
+  for (let i = 0; i < n; i += step)
+    for (let j = i + 1; j < n; j++) {
+      const dx = xs[j] - xs[i];
+      if (dx !== 0) slopes.push((ys[j] - ys[i]) / dx);
+    }
+  const slope = slopes.length ? median(slopes) : 0;
+  const intercept = median(Array.from(ys, (y, i) => y - slope * xs[i]));
+  return { slope, intercept };
+}
+
+export interface HuberOptions {
+  /** Tuning constant in units of the robust scale (1.345 gives 95% efficiency). */
+  k?: number;
+  /** Smallest scale used for the weights, so near-perfect data is not over-trimmed. */
+  minScale?: number;
+  iterations?: number;
+  /** Points with weight 0 take no part (e.g. rejected outliers). */
+  mask?: ArrayLike<number>;
+}
+
+/** Weighted least squares line with weights w; x is centred for conditioning. */
+export function weightedLine(xs: ArrayLike<number>, ys: ArrayLike<number>, w: ArrayLike<number>) {
+  let sw = 0, sx = 0, sy = 0;
+  for (let i = 0; i < xs.length; i++) {
+    sw += w[i];
+    sx += w[i] * xs[i];
+    sy += w[i] * ys[i];
+  }
+  const mx = sx / sw;
+  const my = sy / sw;
+  let sxx = 0, sxy = 0;
+  for (let i = 0; i < xs.length; i++) {
+    const dx = xs[i] - mx;
+    sxx += w[i] * dx * dx;
+    sxy += w[i] * dx * (ys[i] - my);
+  }
+  const slope = sxx > 0 ? sxy / sxx : 0;
+  return { slope, intercept: my - slope * mx, mx, sw, sxx };
+}
+
+/**
+ * Huber M-estimate by IRLS, started from Theil–Sen.
+ * `huberFit(t, tRef) -> { intercept, slope, interceptSe, slopeSe, weights, residuals, scale }`
+ */
+export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: HuberOptions = {}): LineFit {
+  const n = xs.length;
+  const k = opts.k ?? 1.345;
+  const minScale = opts.minScale ?? 1e-3;
+  const mask = opts.mask ?? new Float64Array(n).fill(1);
+  const idx = Array.from({ length: n }, (_, i) => i).filter((i) => mask[i] > 0);
+  const start = theilSen(idx.map((i) => xs[i]), idx.map((i) => ys[i]));
+  let a = start.intercept;
+  let b = start.slope;
+  const w = new Float64Array(n);
+  const r = new Float64Array(n);
+  let scale = minScale;
+  for (let it = 0; it < (opts.iterations ?? 30); it++) {
+    for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
+    scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => r[i])));
+    for (let i = 0; i < n; i++) w[i] = mask[i] > 0 ? Math.min(1, (k * scale) / Math.max(Math.abs(r[i]), 1e-300)) : 0;
+    const fit = weightedLine(xs, ys, w);
+    const moved = Math.abs(fit.intercept - a) + Math.abs(fit.slope - b) * (Math.abs(fit.mx) + 1);
+    a = fit.intercept;
+    b = fit.slope;
+    if (moved < 1e-12) break;
+  }
+  for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
+  const { mx, sw, sxx } = weightedLine(xs, ys, w);
+  // Residual variance of the weighted fit; used points only.
+  let ss = 0;
+  for (const i of idx) ss += w[i] * r[i] * r[i];
+  const used = idx.length;
+  const sigma2 = used > 2 ? ss / ((sw * (used - 2)) / used) : NaN;
+  const slopeSe = Math.sqrt(sigma2 / sxx);
+  const interceptSe = Math.sqrt(sigma2 * (1 / sw + (mx * mx) / sxx));
+  return { intercept: a, slope: b, interceptSe, slopeSe, weights: w, residuals: r, scale };
+}
