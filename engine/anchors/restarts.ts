@@ -1,0 +1,259 @@
+/**
+ * Restarts seen in tracking: the ball goes dead (leaves the field or stops), is placed
+ * and stands still, then is played. Each restart becomes an anchor at the moment the
+ * ball is played, classified by where it stood (Law 1 geometry) and, for kick-offs, by
+ * the formation (Law 8: everyone in their own half). Without ball data, kick-offs are
+ * found from the formation alone, with lower confidence.
+ */
+import type { Anchor, Seconds, TeamSide, TrackingData, TrackingPeriod } from '../../shared-types/domain.ts';
+import { savgolSeries } from '../kinematics/savgol.ts';
+import { median } from '../fit/robust.ts';
+import { outOfField, restartKindAt } from './geometry.ts';
+
+export interface RestartOptions {
+  /** Below this smoothed speed the ball counts as standing still, m/s. */
+  stillSpeed?: number;
+  /** Shortest stillness before a restart at a marked place, s. */
+  minStillS?: Seconds;
+  /** Shortest stillness for a free kick (anywhere else on the field), s. */
+  freeKickMinStillS?: Seconds;
+  /** Distance from the resting place that counts as "moved off", m. */
+  moveDist?: number;
+}
+
+/** A tracking restart anchor, with what the refinement step needs beside the Anchor fields. */
+export interface RestartAnchor extends Anchor {
+  /** Frame index within the period's arrays (not the file's frame number). */
+  frameIndex: number;
+  /** Tracking time the ball came to rest at the spot. */
+  stillFromT: Seconds;
+  /** Object index of the nearest player when the ball was played (the taker). */
+  takerIndex?: number;
+  takerTeam?: TeamSide;
+  takerShirt?: number;
+}
+
+const DEFAULTS: Required<RestartOptions> = { stillSpeed: 0.4, minStillS: 0.6, freeKickMinStillS: 1.2, moveDist: 0.3 };
+
+/**
+ * `detectRestarts(tracking) -> Anchor[]` (kick-offs, goal kicks, corners, throw-ins,
+ * free kicks, penalties; plus period_start / period_end), sorted by period and time.
+ */
+export function detectRestarts(tracking: TrackingData, opts: RestartOptions = {}): RestartAnchor[] {
+  const o = { ...DEFAULTS, ...opts };
+  const out: RestartAnchor[] = [];
+  for (const p of tracking.periods) {
+    const found = tracking.ballIndex >= 0 ? restartsFromBall(tracking, p, o) : kickOffsFromFormation(tracking, p);
+    out.push(...found);
+    const firstKick = found.find((a) => a.kind === 'kick_off');
+    if (firstKick)
+      out.push({ ...firstKick, id: `trk-p${p.period}-start`, kind: 'period_start', note: 'first kick-off of the period' });
+    const last = lastPresentFrame(p);
+    if (last >= 0)
+      out.push({
+        id: `trk-p${p.period}-end`, source: 'tracking', kind: 'period_end', period: p.period, t: last / tracking.rate,
+        confidence: 0.3, note: 'last tracked frame of the period (the whistle is usually a little earlier)',
+        frameIndex: last, stillFromT: last / tracking.rate,
+      });
+  }
+  return out.sort((a, b) => a.period - b.period || a.t - b.t);
+}
+
+function lastPresentFrame(p: TrackingPeriod): number {
+  for (let f = p.frameCount - 1; f >= 0; f--) if (p.present[f]) return f;
+  return -1;
+}
+
+/** Copy one object's coordinate out of the frame-major arrays. */
+export function column(arr: Float32Array, objectIndex: number, objectCount: number, frames: number): Float64Array {
+  const out = new Float64Array(frames);
+  for (let f = 0; f < frames; f++) out[f] = arr[f * objectCount + objectIndex];
+  return out;
+}
+
+function restartsFromBall(tracking: TrackingData, p: TrackingPeriod, o: Required<RestartOptions>): RestartAnchor[] {
+  const { rate, pitch } = tracking;
+  const nObj = tracking.objects.length;
+  const n = p.frameCount;
+  const bx = column(p.x, tracking.ballIndex, nObj, n);
+  const by = column(p.y, tracking.ballIndex, nObj, n);
+  // A longer window than for kicks: stillness must survive tracking noise.
+  const half = Math.max(2, Math.round(0.2 * rate));
+  const vx = savgolSeries(bx, { half, order: 2, deriv: 1, dt: 1 / rate });
+  const vy = savgolSeries(by, { half, order: 2, deriv: 1, dt: 1 / rate });
+  const still = (f: number) => !Number.isNaN(bx[f]) && Math.hypot(vx[f], vy[f]) < o.stillSpeed;
+  const out: RestartAnchor[] = [];
+  let f = 0;
+  while (f < n) {
+    if (!still(f)) {
+      f++;
+      continue;
+    }
+    let g = f;
+    while (g + 1 < n && still(g + 1)) g++;
+    const a = f;
+    f = g + 1;
+    const dur = (g - a + 1) / rate;
+    if (dur < o.minStillS) continue;
+    const px = median(bx.subarray(Math.max(a, g - Math.round(0.5 * rate)), g + 1));
+    const py = median(by.subarray(Math.max(a, g - Math.round(0.5 * rate)), g + 1));
+    if (outOfField(px, py, pitch, 1.5)) continue; // resting off the field: not yet placed
+    const kick = kickMoment(bx, by, px, py, a, n, rate, o.moveDist);
+    if (!kick) continue;
+    let kind = restartKindAt(px, py, pitch);
+    if (kind === 'free_kick' && dur < o.freeKickMinStillS) continue;
+    const frame = Math.min(n - 1, Math.max(0, Math.round(kick.t * rate)));
+    const taker = nearestPlayer(tracking, p, frame, px, py);
+    let confidence = Math.min(1, 0.55 + 0.15 * Math.min(dur, 3) + (kick.clean ? 0.0 : -0.2));
+    let note = `ball still ${dur.toFixed(1)} s at (${px.toFixed(1)}, ${py.toFixed(1)}), then played`;
+    if (kind === 'kick_off') {
+      const share = ownHalfShare(tracking, p, frame);
+      if (share !== undefined && share < 0.8) {
+        kind = 'free_kick';
+        note += `; only ${(share * 100).toFixed(0)}% in own half, so not a kick-off`;
+      } else if (share !== undefined) {
+        confidence = Math.max(confidence, 0.95);
+        note += `; ${(share * 100).toFixed(0)}% of players in own half`;
+      }
+    }
+    out.push({
+      id: `trk-p${p.period}-${out.length + 1}`, source: 'tracking', kind, period: p.period, t: kick.t, x: px, y: py,
+      confidence, note, frameIndex: frame, stillFromT: a / rate,
+      takerIndex: taker?.index, takerTeam: taker?.team, takerShirt: taker?.shirt,
+    });
+    // Skip past the kick so the ball's next stop is looked at afresh.
+    f = Math.max(f, frame + 1);
+  }
+  return out;
+}
+
+/**
+ * When a resting ball at (px, py) is played: the first frame it is moveDist away, then a
+ * straight-line fit of distance against time over the next frames, extrapolated back to
+ * distance 0 — sub-frame, and free of the smoothing window's lag.
+ */
+export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: number, from: number, n: number,
+  rate: number, moveDist: number): { t: Seconds; clean: boolean } | undefined {
+  let f1 = -1;
+  for (let f = from; f < n; f++) {
+    if (Number.isNaN(bx[f])) continue;
+    if (Math.hypot(bx[f] - px, by[f] - py) > moveDist) {
+      f1 = f;
+      break;
+    }
+  }
+  if (f1 < 0) return undefined;
+  // It must really leave: well away within half a second.
+  const check = Math.min(n - 1, f1 + Math.round(0.5 * rate));
+  let left = false;
+  for (let f = f1; f <= check; f++) if (!Number.isNaN(bx[f]) && Math.hypot(bx[f] - px, by[f] - py) > 1.5) left = true;
+  if (!left) return undefined;
+  const k = Math.max(3, Math.round(0.16 * rate));
+  const ts: number[] = [];
+  const ds: number[] = [];
+  for (let f = f1; f < Math.min(n, f1 + k); f++) {
+    if (Number.isNaN(bx[f])) break;
+    ts.push(f / rate);
+    ds.push(Math.hypot(bx[f] - px, by[f] - py));
+  }
+  const lo = (f1 - 1) / rate;
+  const hi = f1 / rate;
+  if (ts.length < 2) return { t: hi - 0.5 / rate, clean: false };
+  const mt = ts.reduce((s, v) => s + v, 0) / ts.length;
+  const md = ds.reduce((s, v) => s + v, 0) / ds.length;
+  let sxy = 0, sxx = 0;
+  for (let i = 0; i < ts.length; i++) {
+    sxy += (ts[i] - mt) * (ds[i] - md);
+    sxx += (ts[i] - mt) ** 2;
+  }
+  const v = sxy / sxx;
+  if (!(v > 0.5)) return { t: hi - 0.5 / rate, clean: false };
+  const t = mt - md / v;
+  return { t: Math.min(hi, Math.max(lo, t)), clean: t >= lo - 0.5 / rate && t <= hi + 0.5 / rate };
+}
+
+export function nearestPlayer(tracking: TrackingData, p: TrackingPeriod, frame: number, x: number, y: number) {
+  const nObj = tracking.objects.length;
+  let best: { index: number; team?: TeamSide; shirt?: number; dist: number } | undefined;
+  for (let i = 0; i < nObj; i++) {
+    const ob = tracking.objects[i];
+    if (ob.role !== 'player') continue;
+    const px = p.x[frame * nObj + i];
+    const py = p.y[frame * nObj + i];
+    if (Number.isNaN(px)) continue;
+    const d = Math.hypot(px - x, py - y);
+    if (!best || d < best.dist) best = { index: i, team: ob.team, shirt: ob.shirt, dist: d };
+  }
+  return best;
+}
+
+/** Share of players with a known team standing in their own half (Law 8), 0.5 m leeway. */
+export function ownHalfShare(tracking: TrackingData, p: TrackingPeriod, frame: number): number | undefined {
+  const nObj = tracking.objects.length;
+  const homeSign = p.homeAttacks === 'positive_x' ? 1 : -1;
+  let inOwn = 0, seen = 0;
+  for (let i = 0; i < nObj; i++) {
+    const ob = tracking.objects[i];
+    if (ob.role !== 'player' || !ob.team) continue;
+    const x = p.x[frame * nObj + i];
+    if (Number.isNaN(x)) continue;
+    const attack = ob.team === 'home' ? homeSign : -homeSign;
+    seen++;
+    if (attack * x <= 0.5) inOwn++;
+  }
+  return seen >= 6 ? inOwn / seen : undefined;
+}
+
+/**
+ * Kick-offs without a ball: a stretch of at least 2 s with (nearly) every player in their
+ * own half and nearly still, ended by a burst of movement. The anchor is the moment the
+ * mean speed rises, which trails the kick by a few tenths of a second.
+ */
+function kickOffsFromFormation(tracking: TrackingData, p: TrackingPeriod): RestartAnchor[] {
+  const { rate } = tracking;
+  const nObj = tracking.objects.length;
+  const n = p.frameCount;
+  const players = tracking.objects.map((ob, i) => ({ ob, i })).filter((e) => e.ob.role === 'player' && e.ob.team);
+  if (players.length < 6) return [];
+  const meanSpeed = new Float64Array(n).fill(NaN);
+  const half = Math.max(2, Math.round(0.2 * rate));
+  const sums = new Float64Array(n);
+  const counts = new Float64Array(n);
+  for (const { i } of players) {
+    const vx = savgolSeries(column(p.x, i, nObj, n), { half, order: 2, deriv: 1, dt: 1 / rate });
+    const vy = savgolSeries(column(p.y, i, nObj, n), { half, order: 2, deriv: 1, dt: 1 / rate });
+    for (let f = 0; f < n; f++) {
+      const s = Math.hypot(vx[f], vy[f]);
+      if (!Number.isNaN(s)) {
+        sums[f] += s;
+        counts[f]++;
+      }
+    }
+  }
+  for (let f = 0; f < n; f++) if (counts[f] >= 6) meanSpeed[f] = sums[f] / counts[f];
+  const formed = (f: number) => meanSpeed[f] < 0.8 && (ownHalfShare(tracking, p, f) ?? 0) >= 0.95;
+  const out: RestartAnchor[] = [];
+  let f = 0;
+  while (f < n) {
+    if (!formed(f)) {
+      f++;
+      continue;
+    }
+    let g = f;
+    while (g + 1 < n && formed(g + 1)) g++;
+    const dur = (g - f + 1) / rate;
+    const a = f;
+    f = g + 1;
+    if (dur < 2) continue;
+    // The burst: mean speed climbs past 1.5 m/s within 2 s after the stillness ends.
+    let burst = -1;
+    for (let h = g; h < Math.min(n, g + 2 * rate); h++) if (meanSpeed[h] > 1.5) { burst = h; break; }
+    if (burst < 0) continue;
+    out.push({
+      id: `trk-p${p.period}-k${out.length + 1}`, source: 'tracking', kind: 'kick_off', period: p.period,
+      t: (g + 1) / rate, x: 0, y: 0, confidence: 0.5, frameIndex: g + 1, stillFromT: a / rate,
+      note: `no ball data: players in own halves and still for ${dur.toFixed(1)} s, then moving`,
+    });
+  }
+  return out;
+}
