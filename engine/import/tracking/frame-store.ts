@@ -1,0 +1,82 @@
+/**
+ * Collects tracking samples as they stream in, in compact growable typed arrays, until the
+ * whole file has been read and the frames can be laid out per period (normalise.ts).
+ * One "entry" per frame as it appears in the file; one "sample" per object position.
+ */
+import type { ObjectRole, TeamSide, TrackedObject } from '../../../shared-types/domain.ts';
+import { parseObjectId } from '../object-ids.ts';
+
+class Growable<T extends Float64Array | Float32Array | Int32Array | Int16Array> {
+  length = 0;
+  constructor(public data: T) {}
+  push(v: number): void {
+    if (this.length === this.data.length) {
+      const bigger = new (this.data.constructor as new (n: number) => T)(this.data.length * 2);
+      bigger.set(this.data);
+      this.data = bigger;
+    }
+    this.data[this.length++] = v;
+  }
+}
+
+export class FrameStore {
+  // Per entry (frame as it appears in the file).
+  readonly entryFrame = new Growable(new Float64Array(1024));
+  readonly entryTime = new Growable(new Float64Array(1024));
+  readonly entryPeriod = new Growable(new Int16Array(1024));
+  readonly entryLine = new Growable(new Int32Array(1024));
+  // Per sample.
+  readonly sampleEntry = new Growable(new Int32Array(4096));
+  readonly sampleObject = new Growable(new Int16Array(4096));
+  readonly sampleX = new Growable(new Float32Array(4096));
+  readonly sampleY = new Growable(new Float32Array(4096));
+  readonly sampleZ = new Growable(new Float32Array(4096));
+
+  readonly objects: TrackedObject[] = [];
+  private readonly objectIndex = new Map<string, number>();
+
+  get entries(): number {
+    return this.entryFrame.length;
+  }
+
+  /** Index of an object, registering it on first sight with what its id and columns say. */
+  object(id: string, extra?: { team?: TeamSide; shirt?: number; role?: ObjectRole }): number {
+    let i = this.objectIndex.get(id);
+    if (i === undefined) {
+      const info = parseObjectId(id);
+      const obj: TrackedObject = { id, role: extra?.role ?? info.role };
+      const team = extra?.team ?? info.team;
+      const shirt = extra?.shirt ?? info.shirt;
+      if (team && obj.role === 'player') obj.team = team;
+      if (shirt !== undefined && Number.isFinite(shirt) && obj.role === 'player') obj.shirt = shirt;
+      i = this.objects.length;
+      this.objects.push(obj);
+      this.objectIndex.set(id, i);
+    }
+    return i;
+  }
+
+  /** Starts a new entry unless this row belongs to the same frame as the last one. */
+  entry(period: number, frame: number, time: number, line: number): number {
+    const n = this.entryFrame.length;
+    if (n > 0 && this.entryPeriod.data[n - 1] === period) {
+      const f = this.entryFrame.data[n - 1];
+      const t = this.entryTime.data[n - 1];
+      // NaN means "not in the file"; two NaN count as equal here.
+      if ((f === frame || (f !== f && frame !== frame)) && (t === time || (t !== t && time !== time))) return n - 1;
+    }
+    this.entryFrame.push(frame);
+    this.entryTime.push(time);
+    this.entryPeriod.push(period);
+    this.entryLine.push(line);
+    return n;
+  }
+
+  sample(entry: number, object: number, x: number, y: number, z: number): void {
+    this.sampleEntry.push(entry);
+    this.sampleObject.push(object);
+    this.sampleX.push(x);
+    this.sampleY.push(y);
+    this.sampleZ.push(z);
+  }
+}
