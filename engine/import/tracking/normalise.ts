@@ -220,10 +220,10 @@ function unitScale(m: TrackingMapping): number {
  */
 function homeAttacks(tp: TrackingPeriod, objects: FrameStore['objects'], rate: number, log: ProblemLog): TrackingPeriod['homeAttacks'] {
   const nObj = objects.length;
-  const window = Math.min(tp.frameCount, Math.max(1, Math.round(KICK_OFF_WINDOW_S * rate)));
+  const kickOffFrames = Math.min(tp.frameCount, Math.max(1, Math.round(KICK_OFF_WINDOW_S * rate)));
   const sum = { home: 0, away: 0 };
   const count = { home: 0, away: 0 };
-  for (let f = 0; f < window; f++) {
+  for (let f = 0; f < kickOffFrames; f++) {
     for (let o = 0; o < nObj; o++) {
       const team = objects[o].team;
       if (!team || objects[o].role !== 'player') continue;
