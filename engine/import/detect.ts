@@ -69,7 +69,8 @@ function detectDelimited(fileName: string, head: string): Detection {
   const tracking = detectTrackingCsv(header, rows, delimiter);
   const asObjects = rows.map((r) => Object.fromEntries(header.map((h, i) => [h, r[i] ?? ''])));
   const events = detectEvents(fileName, header, asObjects, 'csv', delimiter);
-  const best = pick(tracking, events);
+  // A column of event names settles it against long tracking (which has no such column).
+  const best = events && tracking?.mapping?.kind === 'tracking' && tracking.mapping.layout === 'long' ? events : pick(tracking, events);
   if (!best) return unknown(fileName, header, preview, [baseClue, `columns: ${header.slice(0, 12).join(', ')}`]);
   const problems = 'problems' in best && best.problems ? best.problems : [];
   if (!rows.length) problems.push({ severity: 'warning', file: fileName, line: 2, message: 'Only a header was found in the first part of the file.', hint: 'Check the file has data rows.' });

@@ -30,7 +30,8 @@ export function detectEvents(fileName: string, header: string[], rows: Record<st
   const y = col('y');
   const endX = col('endX');
   const endY = col('endY');
-  clues.push(`event names in "${kind}", times in "${time.name}" (${time.style.replace(/_/g, ' ')})`);
+  const styleWord = { iso8601: 'ISO-8601 wall clock', seconds: 'seconds', match_clock_continuing: 'match clock MM:SS', match_clock_restarting: 'match clock MM:SS' }[time.style];
+  clues.push(`event names in "${kind}", times in "${time.name}" (${styleWord})`);
 
   // Continuing or restarting match clock: look at period 2's values.
   let clock: EventClockStyle = time.style;
