@@ -1,0 +1,74 @@
+/** The app shell: project bar, screen rail, and the current screen. */
+import { useEffect, useState } from 'react';
+import { ProgressBar } from './ProgressBar.tsx';
+import { SourcesScreen } from '../sources/SourcesScreen.tsx';
+import { AppContext, type AppServices } from './context.ts';
+import { seedDemoOnFirstStart, type SeedStep } from './firstStart.ts';
+import { NavRail } from './NavRail.tsx';
+import { ProjectBar } from './ProjectBar.tsx';
+import { useLive } from './useLive.ts';
+
+export function App({ services }: { services: AppServices }) {
+  const { db } = services;
+  const projects = useLive(() => db.projects.orderBy('updatedAt').reverse().toArray(), []);
+  const chosen = useLive(() => db.settings.get('currentProject').then((r) => (r?.value as number | undefined) ?? null), []);
+  const [seed, setSeed] = useState<SeedStep[] | null>(null);
+  const [seedError, setSeedError] = useState('');
+
+  useEffect(() => {
+    seedDemoOnFirstStart(services, setSeed).catch((e) => setSeedError(`Setting up the demo match failed: ${(e as Error).message}`));
+  }, [services]);
+
+  const ready = projects !== undefined && chosen !== undefined;
+  const current = projects?.find((p) => p.id === chosen) ?? projects?.[0];
+  const seeding = !!seed && seed.some((s) => s.state === 'waiting' || s.state === 'running');
+
+  return (
+    <AppContext.Provider value={services}>
+      <div className="shell">
+        <ProjectBar projects={projects ?? []} currentId={current?.id} />
+        <div className="shell-body">
+          <NavRail current="sources" />
+          <main className="main" aria-busy={!ready || seeding}>
+            {seedError && <p className="error-text" role="alert">{seedError}</p>}
+            {seed && <SeedBanner steps={seed} onDismiss={seeding ? undefined : () => setSeed(null)} />}
+            {ready && current && <SourcesScreen key={current.id} projectId={current.id!} busyElsewhere={seeding} />}
+            {ready && !current && (
+              <div className="empty">
+                <p>No match project yet.</p>
+                <p className="muted">Make one with “New match project” in the top bar.</p>
+              </div>
+            )}
+          </main>
+        </div>
+      </div>
+    </AppContext.Provider>
+  );
+}
+
+function SeedBanner({ steps, onDismiss }: { steps: SeedStep[]; onDismiss: (() => void) | undefined }) {
+  const done = steps.every((s) => s.state === 'done');
+  return (
+    <section className="panel seed" aria-label="Demo match set-up">
+      <header className="panel-head">
+        <h2>{onDismiss ? (done ? 'The demo match is ready' : 'The demo match is partly set up') : 'Setting up the demo match…'}</h2>
+        {onDismiss && (
+          <button type="button" className="quiet" onClick={onDismiss}>
+            Dismiss
+          </button>
+        )}
+      </header>
+      <p className="muted small">An invented match, so the app has something to show on first start. Delete it any time.</p>
+      <ol className="seed-steps">
+        {steps.map((s) => (
+          <li key={s.fileName} data-state={s.state}>
+            <span className="seed-state">{s.state === 'done' ? '✓' : s.state === 'failed' ? '!' : s.state === 'running' ? '…' : '·'}</span>
+            <span className="mono">{s.fileName}</span>
+            {s.state === 'running' && s.progress && <ProgressBar progress={s.progress} label={`Import of ${s.fileName}`} />}
+            {s.message && <span className="error-text">{s.message}</span>}
+          </li>
+        ))}
+      </ol>
+    </section>
+  );
+}
