@@ -11,13 +11,11 @@ import { median } from '../fit/robust.ts';
 import { outOfField, restartKindAt } from './geometry.ts';
 
 export interface RestartOptions {
-  /** Below this smoothed speed the ball counts as standing still, m/s. */
-  stillSpeed?: number;
   /** Shortest stillness before a restart at a marked place, s. */
   minStillS?: Seconds;
   /** Shortest stillness for a free kick (anywhere else on the field), s. */
   freeKickMinStillS?: Seconds;
-  /** Distance from the resting place that counts as "moved off", m. */
+  /** Distance from the resting place that counts as "moved off", m (about 6 SD of ball noise). */
   moveDist?: number;
 }
 
@@ -33,7 +31,7 @@ export interface RestartAnchor extends Anchor {
   takerShirt?: number;
 }
 
-const DEFAULTS: Required<RestartOptions> = { stillSpeed: 0.4, minStillS: 0.6, freeKickMinStillS: 1.2, moveDist: 0.3 };
+const DEFAULTS: Required<RestartOptions> = { minStillS: 0.6, freeKickMinStillS: 0.9, moveDist: 0.45 };
 
 /**
  * `detectRestarts(tracking) -> Anchor[]` (kick-offs, goal kicks, corners, throw-ins,
@@ -77,31 +75,26 @@ function restartsFromBall(tracking: TrackingData, p: TrackingPeriod, o: Required
   const n = p.frameCount;
   const bx = column(p.x, tracking.ballIndex, nObj, n);
   const by = column(p.y, tracking.ballIndex, nObj, n);
-  // A longer window than for kicks: stillness must survive tracking noise.
-  const half = Math.max(2, Math.round(0.2 * rate));
-  const vx = savgolSeries(bx, { half, order: 2, deriv: 1, dt: 1 / rate });
-  const vy = savgolSeries(by, { half, order: 2, deriv: 1, dt: 1 / rate });
-  const still = (f: number) => !Number.isNaN(bx[f]) && Math.hypot(vx[f], vy[f]) < o.stillSpeed;
   const out: RestartAnchor[] = [];
-  let f = 0;
-  while (f < n) {
-    if (!still(f)) {
-      f++;
-      continue;
-    }
-    let g = f;
-    while (g + 1 < n && still(g + 1)) g++;
-    const a = f;
-    f = g + 1;
+  for (const run of stillRuns(bx, by, rate, o.moveDist)) {
+    const { a, g, px, py } = run;
     const dur = (g - a + 1) / rate;
     if (dur < o.minStillS) continue;
-    const px = median(bx.subarray(Math.max(a, g - Math.round(0.5 * rate)), g + 1));
-    const py = median(by.subarray(Math.max(a, g - Math.round(0.5 * rate)), g + 1));
     if (outOfField(px, py, pitch, 1.5)) continue; // resting off the field: not yet placed
-    const kick = kickMoment(bx, by, px, py, a, n, rate, o.moveDist);
-    if (!kick) continue;
+    const kick = kickMoment(bx, by, px, py, g + 1, n, rate, o.moveDist);
+    if (!kick) continue; // never played: the ball came to rest after the whistle, say
     let kind = restartKindAt(px, py, pitch);
-    if (kind === 'free_kick' && dur < o.freeKickMinStillS) continue;
+    const z = p.ballZ ? median(p.ballZ.subarray(a, g + 1).filter((v) => !Number.isNaN(v))) : NaN;
+    // A ball held at hand height away from the touchline is a keeper's, not a placed ball.
+    if (z > 0.4 && kind !== 'throw_in') continue;
+    // Restarts after the ball left the field need it to have left (Laws 15–17); a keeper
+    // holding the ball in the goal area looks like a goal kick otherwise.
+    if ((kind === 'goal_kick' || kind === 'corner' || kind === 'throw_in') && !wentOutBefore(bx, by, a, rate, pitch)) continue;
+    if (kind === 'free_kick') {
+      if (dur < o.freeKickMinStillS) continue;
+      // Inside a penalty area only when the height shows the ball on the ground (see above).
+      if (inPenaltyArea(px, py, pitch) && !(z <= 0.4)) continue;
+    }
     const frame = Math.min(n - 1, Math.max(0, Math.round(kick.t * rate)));
     const taker = nearestPlayer(tracking, p, frame, px, py);
     let confidence = Math.min(1, 0.55 + 0.15 * Math.min(dur, 3) + (kick.clean ? 0.0 : -0.2));
@@ -121,10 +114,52 @@ function restartsFromBall(tracking: TrackingData, p: TrackingPeriod, o: Required
       confidence, note, frameIndex: frame, stillFromT: a / rate,
       takerIndex: taker?.index, takerTeam: taker?.team, takerShirt: taker?.shirt,
     });
-    // Skip past the kick so the ball's next stop is looked at afresh.
-    f = Math.max(f, frame + 1);
   }
   return out;
+}
+
+/**
+ * Stretches where the ball stays within `radius` of where it rests: frames a..g and the
+ * mean resting place. Missing frames (NaN) up to half a second do not end a stretch, so
+ * a dropped frame does not split a restart in two.
+ */
+export function stillRuns(bx: Float64Array, by: Float64Array, rate: number, radius: number) {
+  const runs: { a: number; g: number; px: number; py: number }[] = [];
+  const maxGap = Math.round(0.5 * rate);
+  const n = bx.length;
+  let f = 0;
+  while (f < n) {
+    if (Number.isNaN(bx[f])) { f++; continue; }
+    let sx = bx[f], sy = by[f], cnt = 1, g = f, h = f + 1;
+    while (h < n && h - g <= maxGap) {
+      if (Number.isNaN(bx[h])) { h++; continue; }
+      if (Math.hypot(bx[h] - sx / cnt, by[h] - sy / cnt) > radius) break;
+      sx += bx[h]; sy += by[h]; cnt++; g = h; h++;
+    }
+    if (g > f) runs.push({ a: f, g, px: sx / cnt, py: sy / cnt });
+    f = g + 1;
+  }
+  return runs;
+}
+
+/**
+ * Whether the ball was off the field since it last flew (a pass or shot in the field)
+ * before frame a: scanning back up to 40 s, an off-field frame must come before any
+ * in-field movement faster than 8 m/s (fetching a ball back is slower than that).
+ */
+function wentOutBefore(bx: Float64Array, by: Float64Array, a: number, rate: number, pitch: { length: number; width: number }): boolean {
+  const step = Math.max(1, Math.round(0.2 * rate));
+  for (let f = a; f >= Math.max(0, a - 40 * rate); f--) {
+    if (Number.isNaN(bx[f])) continue;
+    if (outOfField(bx[f], by[f], pitch, 0.3)) return true;
+    const e = f - step;
+    if (e >= 0 && !Number.isNaN(bx[e]) && Math.hypot(bx[f] - bx[e], by[f] - by[e]) * (rate / step) > 8) return false;
+  }
+  return false;
+}
+
+function inPenaltyArea(x: number, y: number, pitch: { length: number; width: number }): boolean {
+  return Math.abs(x) >= pitch.length / 2 - 16.5 && Math.abs(y) <= 7.32 / 2 + 16.5;
 }
 
 /**
@@ -156,7 +191,7 @@ export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: n
     ts.push(f / rate);
     ds.push(Math.hypot(bx[f] - px, by[f] - py));
   }
-  const lo = (f1 - 1) / rate;
+  const lo = (f1 - 2) / rate;
   const hi = f1 / rate;
   if (ts.length < 2) return { t: hi - 0.5 / rate, clean: false };
   const mt = ts.reduce((s, v) => s + v, 0) / ts.length;

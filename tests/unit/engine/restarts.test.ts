@@ -28,20 +28,24 @@ function restThenKick(keys: Key[], p: { x: number; y: number }, t0: number, t1: 
   keys.push({ t: t0, ...p }, { t: t1, ...p }, { t: t1 + 1, x: p.x + (v * dx) / d, y: p.y + (v * dy) / d });
 }
 
-describe('detectRestarts on hand-built tracking (25 Hz, 2 cm noise)', () => {
+describe('detectRestarts on hand-built tracking (25 Hz, 7.5 cm noise)', () => {
   // Kick times fall between frames on purpose (sub-frame estimate).
   const truth: { kind: string; t: number; x: number; y: number }[] = [];
   const keys: Key[] = [];
-  const plan: [string, { x: number; y: number }, number, number, number, number][] = [
-    ['kick_off', { x: 0, y: 0 }, 0, 5.013, -1, 0.3],
-    ['goal_kick', { x: -(HL - 4), y: 6 }, 14, 17.531, 1, 0.2],
-    ['corner', { x: HL - 0.5, y: HW - 0.5 }, 27, 30.27, -1, -1],
-    ['throw_in', { x: 10, y: -HW }, 40, 42.118, 0.2, 1],
-    ['free_kick', { x: -15, y: 9 }, 52, 55.09, 1, 0],
-    ['penalty', { x: HL - 11, y: 0 }, 66, 69.4, 1, 0.05],
+  // [kind, resting place, rest from, kicked at, direction, where the ball left the field]
+  type Step = [string, { x: number; y: number }, number, number, number, number, { x: number; y: number } | null];
+  const plan: Step[] = [
+    ['kick_off', { x: 0, y: 0 }, 0, 5.013, -1, 0.3, null],
+    ['goal_kick', { x: -(HL - 4), y: 6 }, 14, 17.531, 1, 0.2, { x: -(HL + 1.5), y: 8 }],
+    ['corner', { x: HL - 0.5, y: HW - 0.5 }, 27, 30.27, -1, -1, { x: HL + 1.5, y: HW - 5 }],
+    ['throw_in', { x: 10, y: -HW }, 40, 42.118, 0.2, 1, { x: 12, y: -HW - 2 }],
+    ['free_kick', { x: -15, y: 9 }, 52, 55.09, 1, 0, null],
+    ['penalty', { x: HL - 11, y: 0 }, 66, 69.4, 1, 0.05, null],
   ];
-  for (const [kind, p, t0, t1, dx, dy] of plan) {
-    if (keys.length) keys.push({ t: t0 - 1.5, x: p.x + 20 * Math.sign(-dx || 1), y: p.y * 0.5 }); // ball brought over
+  for (const [kind, p, t0, t1, dx, dy, out] of plan) {
+    // Out-of-play restarts (Laws 15-17): the ball first leaves the field, then is fetched.
+    if (out) keys.push({ t: t0 - 4, ...out });
+    else if (keys.length) keys.push({ t: t0 - 1.5, x: p.x + 3, y: p.y }); // ball brought over
     restThenKick(keys, p, t0, t1, dx, dy);
     truth.push({ kind, t: t1, ...p });
   }
@@ -50,7 +54,7 @@ describe('detectRestarts on hand-built tracking (25 Hz, 2 cm noise)', () => {
     const s = ownHalfSpot(i);
     return t < 5.013 ? s : { x: s.x + 3 * Math.sin(t + i), y: s.y + 3 * Math.cos(0.7 * t + i) };
   };
-  const tracking = syntheticTracking({ rate: 25, durationS: 75, ball: keys, players, seed: 5 });
+  const tracking = syntheticTracking({ rate: 25, durationS: 75, ball: keys, players, seed: 5, noise: 0.075 });
   const found = detectRestarts(tracking).filter((a) => a.kind !== 'period_start' && a.kind !== 'period_end');
 
   it('finds each restart once, with the Laws kind', () => {
