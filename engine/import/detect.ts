@@ -72,12 +72,14 @@ function detectDelimited(fileName: string, head: string): Detection {
   // A column of event names settles it against long tracking (which has no such column).
   const best = events && tracking?.mapping?.kind === 'tracking' && tracking.mapping.layout === 'long' ? events : pick(tracking, events);
   if (!best) return unknown(fileName, header, preview, [baseClue, `columns: ${header.slice(0, 12).join(', ')}`]);
-  const problems = 'problems' in best && best.problems ? best.problems : [];
+  const problems: ImportProblem[] = [...(best.problems ?? [])];
   if (!rows.length) problems.push({ severity: 'warning', file: fileName, line: 2, message: 'Only a header was found in the first part of the file.', hint: 'Check the file has data rows.' });
   return { ...best, clues: [baseClue, ...best.clues], header, preview, problems };
 }
 
-function pick<A extends { confidence: number }, B extends { confidence: number }>(a: A | null, b: B | null): A | B | null {
+type Found = Omit<Detection, 'header' | 'preview' | 'problems'> & { problems?: ImportProblem[] };
+
+function pick(a: Found | null, b: Found | null): Found | null {
   if (a && b) return a.confidence >= b.confidence ? a : b;
   return a ?? b;
 }
@@ -108,7 +110,7 @@ function detectJson(fileName: string, head: string): Detection {
   const events = detectEvents(fileName, header, rows, 'json');
   const best = pick(tracking, events);
   if (!best) return unknown(fileName, header, preview, [baseClue, `fields: ${header.slice(0, 12).join(', ')}`]);
-  return { ...best, clues: [baseClue, ...best.clues], header, preview, problems: [...problems, ...('problems' in best && best.problems ? best.problems : [])] };
+  return { ...best, clues: [baseClue, ...best.clues], header, preview, problems: [...problems, ...(best.problems ?? [])] };
 }
 
 function cell(v: unknown): string {

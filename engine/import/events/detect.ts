@@ -102,7 +102,7 @@ export function detectEvents(fileName: string, header: string[], rows: Record<st
     coordinates: grid.coordinates,
   };
   if (!periodStartsS) delete mapping.periodStartsS;
-  const confidence = 0.6 + (period ? 0.1 : 0) + (team ? 0.05 : 0) + (x && y ? 0.1 : 0) + (unknown.length < kindNames.length / 2 ? 0.1 : 0);
+  const confidence = 0.6 + (period ? 0.1 : 0) + (team ? 0.05 : 0) + (x && y ? 0.1 : 0) + (unknown.length < Object.keys(kindNames).length / 2 ? 0.1 : 0);
   return { kind: 'events', clues, mapping, confidence: Math.min(0.95, confidence), problems };
 }
 
