@@ -1,4 +1,5 @@
 /** Pure helpers for editing mappings (no React), unit-tested. */
+import { wideObjectsFromHeader } from '../../../engine/import/tracking/detect.ts';
 import type { EventMapping, SourceMapping, TrackingMapping } from '../../../shared-types/index.ts';
 
 /** Set or clear one column role; clearing deletes the key (exactOptionalPropertyTypes-safe). */
@@ -60,7 +61,7 @@ const DEFAULT_COORDS = { unit: 'm', origin: 'centre', yDown: false, pitch: { len
 
 /**
  * A mapping to start from when detection could not tell (kind 'unknown') and the analyst
- * says what the file is. Wide tracking objects come from "<id>_x"/"<id>_y" column pairs.
+ * says what the file is. Wide tracking objects come from x/y column pairs.
  */
 export function blankMapping(kind: 'tracking' | 'events', header: string[]): SourceMapping {
   const find = (re: RegExp) => header.find((h) => re.test(h.trim()));
@@ -78,13 +79,8 @@ export function blankMapping(kind: 'tracking' | 'events', header: string[]): Sou
     if (period) m.columns.period = period;
     return m;
   }
-  const objects: NonNullable<TrackingMapping['columns']['objects']> = [];
-  for (const h of header) {
-    const mx = /^(.*)_x$/i.exec(h.trim());
-    if (!mx) continue;
-    const y = header.find((c) => c.trim().toLowerCase() === `${mx[1]}_y`.toLowerCase());
-    if (y) objects.push({ id: mx[1], x: h, y, ...(/ball/i.test(mx[1]) ? { role: 'ball' as const } : {}) });
-  }
+  // The importer's own x/y pair finder, so hand mapping and detection agree.
+  const objects = wideObjectsFromHeader(header);
   const m: TrackingMapping = {
     kind: 'tracking',
     layout: objects.length ? 'wide' : 'long',
