@@ -56,10 +56,13 @@ export class FrameStore {
     return i;
   }
 
-  /** Starts a new entry unless this row belongs to the same frame as the last one. */
-  entry(period: number, frame: number, time: number, line: number): number {
+  /**
+   * Starts a new entry, unless `sameFrameJoins` (long layout: a row per object) and this
+   * row belongs to the same frame as the last one.
+   */
+  entry(period: number, frame: number, time: number, line: number, sameFrameJoins = false): number {
     const n = this.entryFrame.length;
-    if (n > 0 && this.entryPeriod.data[n - 1] === period) {
+    if (sameFrameJoins && n > 0 && this.entryPeriod.data[n - 1] === period) {
       const f = this.entryFrame.data[n - 1];
       const t = this.entryTime.data[n - 1];
       // NaN means "not in the file"; two NaN count as equal here.

@@ -140,7 +140,7 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         time = NaN;
       }
     }
-    const entry = store.entry(period, frame, time, rec.line);
+    const entry = store.entry(period, frame, time, rec.line, mapping.layout === 'long');
     if (mapping.layout === 'long') {
       let id = c.object !== -1 ? rec.field(c.object).trim() : '';
       const teamRaw = c.team !== -1 ? rec.field(c.team).trim() : '';
