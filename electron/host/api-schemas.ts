@@ -1,0 +1,60 @@
+/**
+ * zod schemas for the arguments of every HostApi call, shared by both adapters (IPC in
+ * Electron, HTTP in browser mode). Nothing reaches a host service unvalidated.
+ * Errors read like: `saveFile: argument 1 .suggestedName: expected string, received number`.
+ */
+import { z } from 'zod';
+import { HOST_CALLS, type HostApi, type HostCall } from '../../shared-types/host-api.ts';
+import { FILE_ID_PATTERN } from './opened-files.ts';
+
+const path = z.string().min(1, 'must not be empty').max(4096, 'is too long').refine((p) => !p.includes('\0'), 'contains a NUL byte');
+const fileId = z.string().regex(FILE_ID_PATTERN, 'is not a file id handed out by the host');
+const purpose = z.enum(['tracking', 'events', 'footage', 'mapping', 'project', 'any']);
+
+export const saveRequestSchema = z.strictObject({
+  suggestedName: z.string().min(1).max(255),
+  directory: path.optional(),
+  bytes: z.instanceof(Uint8Array),
+  overwrite: z.boolean().optional(),
+});
+
+/** The save request without its bytes: browser mode sends those as the raw body. */
+export const saveMetaSchema = saveRequestSchema.omit({ bytes: true });
+
+export const HOST_ARG_SCHEMAS = {
+  info: z.tuple([]),
+  chooseFiles: z.tuple([purpose, z.boolean()]),
+  listDirectory: z.tuple([path.optional()]),
+  openPaths: z.tuple([z.array(path).min(1, 'needs at least one path').max(1000)]),
+  demoMatch: z.tuple([]),
+  probeFootage: z.tuple([fileId]),
+  saveFile: z.tuple([saveRequestSchema]),
+} satisfies Record<HostCall, z.ZodType>;
+
+export type HostArgs<C extends HostCall> = Parameters<HostApi[C]>;
+
+export function isHostCall(name: string): name is HostCall {
+  return (HOST_CALLS as readonly string[]).includes(name);
+}
+
+/** A validation failure the adapters turn into a 400 / rejected IPC promise. */
+export class HostArgumentError extends Error {
+  override name = 'HostArgumentError';
+}
+
+function describe(issue: z.core.$ZodIssue): string {
+  const [index, ...rest] = issue.path;
+  const where = index === undefined ? 'arguments' : `argument ${Number(index) + 1}${rest.length ? ' .' + rest.join('.') : ''}`;
+  return `${where}: ${issue.message}`;
+}
+
+/** Validates `args` for `call`; throws HostArgumentError naming the call and argument. */
+export function validateArgs<C extends HostCall>(call: C, args: unknown): HostArgs<C> {
+  // Trailing undefined arguments are dropped by JSON; treat [] like [undefined] for optionals.
+  const list = Array.isArray(args) ? args : args;
+  const result = HOST_ARG_SCHEMAS[call].safeParse(list);
+  if (!result.success) {
+    throw new HostArgumentError(`${call}: ${result.error.issues.map(describe).join('; ')}`);
+  }
+  return result.data as HostArgs<C>;
+}
