@@ -125,6 +125,32 @@ export function normaliseTracking(store: FrameStore, mapping: TrackingMapping, l
     return null;
   }
   const periodIds = [...first.keys()].sort((a, b) => a - b);
+  // A span far beyond the frames present means a jump in the frame numbers, not a gap in
+  // the recording (20 minutes of gap allowed, beyond four times the frames present).
+  const entriesIn = new Map<number, number>();
+  for (let i = 0; i < n; i++) if (!dropped[i]) entriesIn.set(periodOf[i], (entriesIn.get(periodOf[i]) ?? 0) + 1);
+  for (const p of periodIds) {
+    const span = last.get(p)! - first.get(p)! + 1;
+    if (span > 4 * entriesIn.get(p)! + rate * 1200) {
+      let worst = 0;
+      let line = 0;
+      let prev = -1;
+      for (let i = 0; i < n; i++) {
+        if (dropped[i] || periodOf[i] !== p) continue;
+        if (prev !== -1 && frames[i] - frames[prev] > worst) {
+          worst = frames[i] - frames[prev];
+          line = store.entryLine.data[i];
+        }
+        prev = i;
+      }
+      log.error('frame-jump', {
+        line,
+        message: `Period ${p}: frame numbers jump by ${worst} (${(worst / rate / 60).toFixed(1)} min at ${rate} Hz) with only ${entriesIn.get(p)} frames present.`,
+        hint: 'Check the frame column, or split periods at this gap (periods from time gaps).',
+      });
+    }
+  }
+  if (log.hasErrors()) return null;
   let cells = 0;
   for (const p of periodIds) cells += (last.get(p)! - first.get(p)! + 1) * nObj;
   if (cells > MAX_CELLS) {
