@@ -1,0 +1,4 @@
+export * from './whistle-types.ts';
+export * from './whistle-detector.ts';
+export * from './scan.ts';
+export { RealFft } from './fft.ts';
