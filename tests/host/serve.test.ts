@@ -39,7 +39,7 @@ function raw(path: string, opts: { method?: string; headers?: Record<string, str
 /** Requests as the app page would make them: cookie, token header, our Origin. */
 const asPage = (extra: Record<string, string> = {}) => ({ cookie, 'x-whistlemark-token': host.token, origin: host.origin, ...extra });
 
-async function api(call: string, args: unknown, headers = asPage()) {
+async function api(call: string, args: unknown, headers: Record<string, string> = asPage()) {
   const r = await raw(`/api/${call}`, { method: 'POST', headers: { 'content-type': 'application/json', ...headers }, body: JSON.stringify(args) });
   return { status: r.status, json: JSON.parse(r.body.toString('utf8')) as { ok: boolean; value?: unknown; error?: string } };
 }
