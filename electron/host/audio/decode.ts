@@ -6,6 +6,7 @@
  * Example:
  *   await decodeAudio('match.mp4', { onChunk: (pcm) => detector.push(pcm) });
  */
+import { statSync } from 'node:fs';
 import { decodeEmbedded } from './decode-embedded.ts';
 import { decodeNative, findNativeFfmpeg } from './decode-native.ts';
 import type { DecodeEngine, DecodeOptions, DecodeResult } from './decode-types.ts';
@@ -13,7 +14,10 @@ import type { DecodeEngine, DecodeOptions, DecodeResult } from './decode-types.t
 export type { DecodeEngine, DecodeOptions, DecodeResult } from './decode-types.ts';
 export { findNativeFfmpeg } from './decode-native.ts';
 
-export function decodeAudio(file: string, opts: DecodeOptions & { engine?: DecodeEngine | 'auto' }): Promise<DecodeResult> {
+export async function decodeAudio(file: string, opts: DecodeOptions & { engine?: DecodeEngine | 'auto' }): Promise<DecodeResult> {
+  const st = statSync(file, { throwIfNoEntry: false });
+  if (!st) throw new Error(`${file}: file not found. Check the path.`);
+  if (!st.isFile()) throw new Error(`${file}: not a file. Give the footage file itself.`);
   const engine = opts.engine ?? 'auto';
   if (engine === 'native') return decodeNative(file, opts);
   if (engine === 'embedded') return decodeEmbedded(file, opts);

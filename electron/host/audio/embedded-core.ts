@@ -4,8 +4,9 @@
  * The core is built for a web worker: it reads `self.location.href` once, while starting,
  * to find its folder (../shared/MACHINE.md). We give it that for the duration of the start
  * only and put the globals back, so nothing else in the process sees a fake `self`.
- * The wasm bytes are read once and reused; each decode gets a fresh core instance, so an
- * aborted run can never leave state behind for the next.
+ * The wasm is read and compiled once per process (the 32 MB module takes seconds to
+ * compile); each decode gets a fresh instance of it, so an aborted run can never leave
+ * state behind for the next.
  */
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -30,9 +31,12 @@ export interface EmscriptenFs {
   ErrnoError: new (errno: number) => Error;
 }
 
-type CoreFactory = (opts: { wasmBinary: Uint8Array }) => Promise<FfmpegCore>;
+type ReceiveInstance = (instance: WebAssembly.Instance, module: WebAssembly.Module) => unknown;
+type CoreFactory = (opts: {
+  instantiateWasm: (imports: WebAssembly.Imports, receive: ReceiveInstance) => object;
+}) => Promise<FfmpegCore>;
 
-let cached: { factory: CoreFactory; wasm: Uint8Array; folderUrl: string } | null = null;
+let cached: { factory: CoreFactory; module: Promise<WebAssembly.Module>; folderUrl: string } | null = null;
 
 function coreFolder(): string {
   const require = createRequire(import.meta.url);
@@ -44,13 +48,21 @@ export async function loadEmbeddedCore(): Promise<FfmpegCore> {
   if (!cached) {
     const folder = coreFolder();
     const mod = (await import(pathToFileURL(join(folder, 'ffmpeg-core.js')).href)) as { default: CoreFactory };
-    cached = { factory: mod.default, wasm: readFileSync(join(folder, 'ffmpeg-core.wasm')), folderUrl: pathToFileURL(folder + '/').href };
+    const module = WebAssembly.compile(readFileSync(join(folder, 'ffmpeg-core.wasm')));
+    cached = { factory: mod.default, module, folderUrl: pathToFileURL(folder + '/').href };
   }
+  const module = await cached.module;
   const g = globalThis as Record<string, unknown>;
   const had = { self: Object.getOwnPropertyDescriptor(g, 'self'), location: Object.getOwnPropertyDescriptor(g, 'location') };
   Object.defineProperty(g, 'self', { value: { location: { href: cached.folderUrl } }, configurable: true, writable: true });
   try {
-    return await cached.factory({ wasmBinary: cached.wasm });
+    return await cached.factory({
+      // Emscripten's hook for bringing our own instance: return {} now, call back when ready.
+      instantiateWasm: (imports, receive) => {
+        void WebAssembly.instantiate(module, imports).then((instance) => receive(instance, module));
+        return {};
+      },
+    });
   } finally {
     restore(g, 'self', had.self);
     restore(g, 'location', had.location);
