@@ -18,7 +18,7 @@ const OFF_PITCH_MARGIN_M = 15;
 const KICK_OFF_WINDOW_S = 5;
 
 export function clockLabel(period: number, seconds: number): string {
-  if (!Number.isFinite(seconds)) return `period ${period}`;
+  if (!Number.isFinite(seconds) || seconds < 0) return `period ${period}`;
   const m = Math.floor(seconds / 60);
   const s = seconds - m * 60;
   return `period ${period} ${String(m).padStart(2, '0')}:${s.toFixed(2).padStart(5, '0')}`;
