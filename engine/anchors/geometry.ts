@@ -19,7 +19,7 @@ export interface PlaceTolerance {
   spot: number;
   line: number;
 }
-const DEFAULT_TOL: PlaceTolerance = { spot: 1.2, line: 1.2 };
+const DEFAULT_TOL: PlaceTolerance = { spot: 1.2, line: 0.6 };
 
 /**
  * The restart a ball standing at (x, y) fits, by the Laws' geometry; free kick elsewhere.
@@ -32,9 +32,9 @@ export function restartKindAt(x: number, y: number, pitch: PitchSize, tol: Place
   const ay = Math.abs(y);
   if (Math.hypot(x, y) <= tol.spot) return 'kick_off';
   if (Math.hypot(ax - (hl - LAW1.penaltyMarkDist), y) <= tol.spot) return 'penalty';
-  if (Math.hypot(ax - hl, ay - hw) <= LAW1.cornerArcR + tol.spot * 0.6) return 'corner';
+  if (Math.hypot(ax - hl, ay - hw) <= LAW1.cornerArcR + tol.line) return 'corner';
   const goalAreaHalfW = LAW1.goalWidth / 2 + LAW1.goalAreaBeyondPost;
-  if (ax >= hl - LAW1.goalAreaDepth - tol.line * 0.5 && ax <= hl + tol.line && ay <= goalAreaHalfW + tol.line * 0.5) return 'goal_kick';
+  if (ax >= hl - LAW1.goalAreaDepth - tol.line && ax <= hl + tol.line && ay <= goalAreaHalfW + tol.line) return 'goal_kick';
   if (ay >= hw - tol.line) return 'throw_in';
   return 'free_kick';
 }

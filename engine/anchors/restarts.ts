@@ -76,31 +76,38 @@ function restartsFromBall(tracking: TrackingData, p: TrackingPeriod, o: Required
   const bx = column(p.x, tracking.ballIndex, nObj, n);
   const by = column(p.y, tracking.ballIndex, nObj, n);
   const out: RestartAnchor[] = [];
-  for (const run of stillRuns(bx, by, rate, o.moveDist)) {
-    const { a, g, px, py } = run;
+  const runs = stillRuns(bx, by, rate, o.moveDist).filter((r) => (r.g - r.a + 1) / rate >= o.minStillS);
+  for (let ri = 0; ri < runs.length; ri++) {
+    const { a, g, px, py } = runs[ri];
     const dur = (g - a + 1) / rate;
-    if (dur < o.minStillS) continue;
-    if (outOfField(px, py, pitch, 1.5)) continue; // resting off the field: not yet placed
+    // Resting off the field is not a placed ball (a thrower may stand a little behind the touchline).
+    if (Math.abs(px) > pitch.length / 2 + 0.5 || Math.abs(py) > pitch.width / 2 + 1.5) continue;
     const kick = kickMoment(bx, by, px, py, g + 1, n, rate, o.moveDist);
     if (!kick) continue; // never played: the ball came to rest after the whistle, say
+    // A slow departure that stops again within 3 s is the ball being walked to its spot.
+    const next = runs[ri + 1];
+    if (kick.speed <= 7 && next && next.a / rate - kick.t < 3) continue;
     let kind = restartKindAt(px, py, pitch);
     const z = p.ballZ ? median(p.ballZ.subarray(a, g + 1).filter((v) => !Number.isNaN(v))) : NaN;
-    // A ball held at hand height away from the touchline is a keeper's, not a placed ball.
-    if (z > 0.4 && kind !== 'throw_in') continue;
+    // A ball held at hand height is a throw-in when at the touchline (Law 15, even near a
+    // corner), otherwise a keeper's ball, not a placed one.
+    if (z > 0.4 && kind !== 'throw_in') {
+      if (Math.abs(py) >= pitch.width / 2 - 0.6) kind = 'throw_in';
+      else continue;
+    }
     // Restarts after the ball left the field need it to have left (Laws 15–17); a keeper
     // holding the ball in the goal area looks like a goal kick otherwise.
-    if ((kind === 'goal_kick' || kind === 'corner' || kind === 'throw_in') && !wentOutBefore(bx, by, a, rate, pitch)) continue;
-    if (kind === 'free_kick') {
-      if (dur < o.freeKickMinStillS) continue;
-      // Inside a penalty area only when the height shows the ball on the ground (see above).
-      if (inPenaltyArea(px, py, pitch) && !(z <= 0.4)) continue;
-    }
-    const frame = Math.min(n - 1, Math.max(0, Math.round(kick.t * rate)));
-    const taker = nearestPlayer(tracking, p, frame, px, py);
+    // Held overhead at the touchline is a throw-in by itself (Law 15); so is a ball resting on the touchline itself: open play does not park a ball there.
+    const heldForThrow = kind === 'throw_in' && (z > 1.5 || Math.abs(py) >= pitch.width / 2 - 0.25);
+    if ((kind === 'goal_kick' || kind === 'corner' || kind === 'throw_in') && !heldForThrow && !wentOutBefore(bx, by, a, rate, pitch)) continue;
+    // Set pieces other than kick-offs and throws are struck (the simulator and common
+    // practice: passes leave at 8 m/s or more); a slower start is someone nudging the ball.
+    if (kick.speed <= 6 && kind !== 'kick_off' && kind !== 'throw_in') continue;
+    const frame0 = Math.min(n - 1, Math.max(0, Math.round(kick.t * rate)));
     let confidence = Math.min(1, 0.55 + 0.15 * Math.min(dur, 3) + (kick.clean ? 0.0 : -0.2));
-    let note = `ball still ${dur.toFixed(1)} s at (${px.toFixed(1)}, ${py.toFixed(1)}), then played`;
+    let note = `ball still ${dur.toFixed(1)} s at (${px.toFixed(1)}, ${py.toFixed(1)}), then played at ${kick.speed.toFixed(0)} m/s`;
     if (kind === 'kick_off') {
-      const share = ownHalfShare(tracking, p, frame);
+      const share = ownHalfShare(tracking, p, frame0);
       if (share !== undefined && share < 0.8) {
         kind = 'free_kick';
         note += `; only ${(share * 100).toFixed(0)}% in own half, so not a kick-off`;
@@ -109,6 +116,16 @@ function restartsFromBall(tracking: TrackingData, p: TrackingPeriod, o: Required
         note += `; ${(share * 100).toFixed(0)}% of players in own half`;
       }
     }
+    if (kind === 'free_kick') {
+      if (dur < o.freeKickMinStillS) continue;
+      // Law 13: opponents at least 9.15 m away (some leeway for tracking noise).
+      const gap = nearestOpponentGap(tracking, p, frame0, px, py);
+      if (gap !== undefined && gap < 8) continue;
+      // Inside a penalty area only when the height shows the ball on the ground (see above).
+      if (inPenaltyArea(px, py, pitch) && !(z <= 0.4)) continue;
+    }
+    const frame = frame0;
+    const taker = nearestPlayer(tracking, p, frame, px, py);
     out.push({
       id: `trk-p${p.period}-${out.length + 1}`, source: 'tracking', kind, period: p.period, t: kick.t, x: px, y: py,
       confidence, note, frameIndex: frame, stillFromT: a / rate,
@@ -151,7 +168,7 @@ function wentOutBefore(bx: Float64Array, by: Float64Array, a: number, rate: numb
   const step = Math.max(1, Math.round(0.2 * rate));
   for (let f = a; f >= Math.max(0, a - 40 * rate); f--) {
     if (Number.isNaN(bx[f])) continue;
-    if (outOfField(bx[f], by[f], pitch, 0.3)) return true;
+    if (outOfField(bx[f], by[f], pitch, 0.05)) return true;
     const e = f - step;
     if (e >= 0 && !Number.isNaN(bx[e]) && Math.hypot(bx[f] - bx[e], by[f] - by[e]) * (rate / step) > 8) return false;
   }
@@ -168,7 +185,7 @@ function inPenaltyArea(x: number, y: number, pitch: { length: number; width: num
  * distance 0 — sub-frame, and free of the smoothing window's lag.
  */
 export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: number, from: number, n: number,
-  rate: number, moveDist: number): { t: Seconds; clean: boolean } | undefined {
+  rate: number, moveDist: number, minSpeed = 4): { t: Seconds; clean: boolean; speed: number } | undefined {
   let f1 = -1;
   for (let f = from; f < n; f++) {
     if (Number.isNaN(bx[f])) continue;
@@ -183,7 +200,7 @@ export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: n
   let left = false;
   for (let f = f1; f <= check; f++) if (!Number.isNaN(bx[f]) && Math.hypot(bx[f] - px, by[f] - py) > 1.5) left = true;
   if (!left) return undefined;
-  const k = Math.max(3, Math.round(0.16 * rate));
+  const k = Math.max(3, Math.round(0.25 * rate));
   const ts: number[] = [];
   const ds: number[] = [];
   for (let f = f1; f < Math.min(n, f1 + k); f++) {
@@ -193,7 +210,7 @@ export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: n
   }
   const lo = (f1 - 2) / rate;
   const hi = f1 / rate;
-  if (ts.length < 2) return { t: hi - 0.5 / rate, clean: false };
+  if (ts.length < 2) return undefined;
   const mt = ts.reduce((s, v) => s + v, 0) / ts.length;
   const md = ds.reduce((s, v) => s + v, 0) / ds.length;
   let sxy = 0, sxx = 0;
@@ -202,9 +219,10 @@ export function kickMoment(bx: Float64Array, by: Float64Array, px: number, py: n
     sxx += (ts[i] - mt) ** 2;
   }
   const v = sxy / sxx;
-  if (!(v > 0.5)) return { t: hi - 0.5 / rate, clean: false };
+  // Played, not carried: passes, shots and throws leave faster than anyone walks a ball back.
+  if (!(v > minSpeed)) return undefined;
   const t = mt - md / v;
-  return { t: Math.min(hi, Math.max(lo, t)), clean: t >= lo - 0.5 / rate && t <= hi + 0.5 / rate };
+  return { t: Math.min(hi, Math.max(lo, t)), clean: t >= lo - 0.5 / rate && t <= hi + 0.5 / rate, speed: v };
 }
 
 export function nearestPlayer(tracking: TrackingData, p: TrackingPeriod, frame: number, x: number, y: number) {
@@ -220,6 +238,24 @@ export function nearestPlayer(tracking: TrackingData, p: TrackingPeriod, frame: 
     if (!best || d < best.dist) best = { index: i, team: ob.team, shirt: ob.shirt, dist: d };
   }
   return best;
+}
+
+/**
+ * Distance from the ball to the nearest player of the side that is not taking the kick
+ * (the taker's side is the nearest player's).
+ */
+export function nearestOpponentGap(tracking: TrackingData, p: TrackingPeriod, frame: number, x: number, y: number): number | undefined {
+  const taker = nearestPlayer(tracking, p, frame, x, y);
+  if (!taker?.team) return undefined;
+  const nObj = tracking.objects.length;
+  let best = Infinity;
+  for (let i = 0; i < nObj; i++) {
+    const ob = tracking.objects[i];
+    if (ob.role !== 'player' || !ob.team || ob.team === taker.team) continue;
+    const d = Math.hypot(p.x[frame * nObj + i] - x, p.y[frame * nObj + i] - y);
+    if (d < best) best = d;
+  }
+  return Number.isFinite(best) ? best : undefined;
 }
 
 /** Share of players with a known team standing in their own half (Law 8), 0.5 m leeway. */
