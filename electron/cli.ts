@@ -13,6 +13,7 @@ export interface CliCommand {
 const commandModules: Record<string, string> = {
   inspect: './cli/inspect.ts',
   sync: './cli/sync.ts',
+  whistles: './cli/whistles.ts',
 };
 const commands: Record<string, () => Promise<{ command: CliCommand }>> = Object.fromEntries(
   Object.entries(commandModules).map(([name, rel]) => [name, () => import(new URL(rel, import.meta.url).href)]),
