@@ -1,3 +1,27 @@
+/** Renderer entry: find the host, open the project database, show the app. */
 import { createRoot } from 'react-dom/client';
+import { App } from './app/App.tsx';
+import { getDb } from './db/database.ts';
+import { getHost } from './host/index.ts';
+import './styles.css';
 
-createRoot(document.getElementById('root')!).render(<div>Whistlemark</div>);
+const root = createRoot(document.getElementById('root')!);
+
+async function boot() {
+  try {
+    const host = getHost();
+    const info = await host.info();
+    const db = getDb();
+    await db.open();
+    root.render(<App services={{ host, info, db }} />);
+  } catch (e) {
+    root.render(
+      <div className="boot-error" role="alert">
+        <h1>Whistlemark could not start</h1>
+        <p>{(e as Error).message}</p>
+        <p>Close the window and start the app again. If this keeps happening, the project database may be damaged.</p>
+      </div>,
+    );
+  }
+}
+void boot();

@@ -64,7 +64,9 @@ function SeedBanner({ steps, onDismiss }: { steps: SeedStep[]; onDismiss: (() =>
           <li key={s.fileName} data-state={s.state}>
             <span className="seed-state">{s.state === 'done' ? '✓' : s.state === 'failed' ? '!' : s.state === 'running' ? '…' : '·'}</span>
             <span className="mono">{s.fileName}</span>
-            {s.state === 'running' && s.progress && <ProgressBar progress={s.progress} label={`Import of ${s.fileName}`} />}
+            {s.state === 'running' && (
+              <ProgressBar progress={s.progress ?? { bytesRead: 0, bytesTotal: s.bytesTotal, rows: 0, phase: 'reading' }} label={`Import of ${s.fileName}`} />
+            )}
             {s.message && <span className="error-text">{s.message}</span>}
           </li>
         ))}

@@ -9,7 +9,7 @@ export function NavRail({ current }: { current: ScreenId }) {
       <ul>
         <li>
           <button type="button" className="rail-item" aria-current={current === 'sources' ? 'page' : undefined}>
-            <span className="rail-key">1</span> Sources
+            <span className="rail-key" aria-hidden="true">▪</span> Sources
           </button>
         </li>
         {LATER.map((name) => (

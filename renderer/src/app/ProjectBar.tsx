@@ -1,5 +1,6 @@
 /** Top bar: the match project switcher, creator and delete (with confirmation). */
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
+import { isTypingTarget } from './keys.ts';
 import type { ProjectRow } from '../db/rows.ts';
 import { createProject, deleteProject } from '../db/store.ts';
 import { useServices } from './context.ts';
@@ -14,6 +15,15 @@ export function ProjectBar({ projects, currentId }: { projects: ProjectRow[]; cu
   const [creating, setCreating] = useState(false);
   const [deleting, setDeleting] = useState(false);
   const current = projects.find((p) => p.id === currentId);
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key !== 'n' || e.ctrlKey || e.metaKey || e.altKey || isTypingTarget(e.target) || document.querySelector('dialog[open]')) return;
+      e.preventDefault();
+      setCreating(true);
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, []);
   return (
     <header className="topbar">
       <div className="brand" aria-label="Whistlemark">
@@ -34,13 +44,13 @@ export function ProjectBar({ projects, currentId }: { projects: ProjectRow[]; cu
           {projects.map((p) => (
             <option key={p.id} value={p.id}>
               {p.title}
-              {p.demo ? ' (demo)' : ''}
+              {p.demo && !/demo/i.test(p.title) ? ' (demo)' : ''}
             </option>
           ))}
         </select>
       </label>
-      <button type="button" onClick={() => setCreating(true)} title="New match project (N)" data-shortcut="n">
-        New match project
+      <button type="button" onClick={() => setCreating(true)} title="New match project (N)">
+        New match project <kbd>N</kbd>
       </button>
       <button type="button" className="quiet danger-text" disabled={!current} onClick={() => setDeleting(true)}>
         Delete project…

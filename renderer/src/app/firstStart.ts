@@ -14,6 +14,7 @@ import type { AppServices } from './context.ts';
 
 export interface SeedStep {
   fileName: string;
+  bytesTotal: number;
   state: 'waiting' | 'running' | 'done' | 'failed';
   progress?: ImportProgress;
   message?: string;
@@ -34,7 +35,7 @@ async function seed({ db, host, info }: AppServices, onSteps: (steps: SeedStep[]
   const demo = await host.demoMatch();
   if (!demo) return;
   const files: OpenedFile[] = [demo.tracking, demo.events, ...demo.footage];
-  const steps: SeedStep[] = files.map((f) => ({ fileName: f.name, state: 'waiting' }));
+  const steps: SeedStep[] = files.map((f) => ({ fileName: f.name, state: 'waiting', bytesTotal: f.size }));
   const update = (i: number, patch: Partial<SeedStep>) => {
     steps[i] = { ...steps[i], ...patch };
     onSteps([...steps]);

@@ -29,7 +29,7 @@ export function EventMappingEditor(props: { value: EventMapping; header: string[
         {col('y', 'y')}
         {col('endX', 'End x')}
         {col('endY', 'End y')}
-        <Choice label="Clock style" value={value.clock} options={CLOCKS} onChange={(clock) => onChange({ ...value, clock })} />
+        <Choice wide label="Clock style" value={value.clock} options={CLOCKS} onChange={(clock) => onChange({ ...value, clock })} />
       </Fieldset>
       <div className="two-col">
         <fieldset className="group">

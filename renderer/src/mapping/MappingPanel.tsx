@@ -32,8 +32,13 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
   const [refused, setRefused] = useState<Extract<ImportOutcome, { status: 'refused' }> | null>(null);
   const [note, setNote] = useState('');
   const importButton = useRef<HTMLButtonElement>(null);
+  const heading = useRef<HTMLHeadingElement>(null);
 
-  useEffect(() => importButton.current?.focus(), []);
+  // Bring the panel's top into view and put focus there; Tab goes on through the mapping.
+  useEffect(() => {
+    heading.current?.scrollIntoView({ block: 'start' });
+    heading.current?.focus({ preventScroll: true });
+  }, []);
 
   const chooseKind = (k: 'tracking' | 'events' | 'unknown') => {
     setKind(k);
@@ -80,7 +85,7 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
     <section className="panel mapping-panel" aria-label={`Mapping for ${file.name}`}>
       <header className="panel-head">
         <div>
-          <h2>
+          <h2 ref={heading} tabIndex={-1}>
             Map <span className="mono">{file.name}</span>
           </h2>
           <p className="muted mono small">

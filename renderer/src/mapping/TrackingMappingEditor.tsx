@@ -26,7 +26,7 @@ export function TrackingMappingEditor({ value, header, onChange }: { value: Trac
   return (
     <div className="mapping-editor">
       <Fieldset legend="Layout and clock">
-        <Choice label="Layout" value={value.layout} options={LAYOUTS} onChange={(layout) => onChange({ ...value, layout })} />
+        <Choice wide label="Layout" value={value.layout} options={LAYOUTS} onChange={(layout) => onChange({ ...value, layout })} />
         {col('frame', 'Frame number')}
         {col('time', 'Time')}
         <NumberField label="Frame rate" suffix="Hz" value={value.rate} min={1} onChange={(rate) => onChange(rate === undefined ? dropRate(value) : { ...value, rate })} />

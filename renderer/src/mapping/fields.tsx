@@ -26,9 +26,9 @@ export function ColumnSelect(props: { label: string; value: string | undefined; 
   );
 }
 
-export function Choice<T extends string>(props: { label: string; value: T; options: readonly (readonly [T, string])[]; onChange: (v: T) => void }) {
+export function Choice<T extends string>(props: { label: string; value: T; options: readonly (readonly [T, string])[]; onChange: (v: T) => void; wide?: boolean }) {
   return (
-    <label className="field">
+    <label className={props.wide ? 'field wide' : 'field'}>
       <span>{props.label}</span>
       <select value={props.value} onChange={(e) => props.onChange(e.target.value as T)}>
         {props.options.map(([v, text]) => (

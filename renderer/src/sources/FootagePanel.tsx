@@ -10,7 +10,10 @@ export function FootagePanel({ file, projectId, onStored, onSkip }: { file: Open
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState('');
   const button = useRef<HTMLButtonElement>(null);
-  useEffect(() => button.current?.focus(), []);
+  useEffect(() => {
+    button.current?.scrollIntoView({ block: 'nearest' });
+    button.current?.focus({ preventScroll: true });
+  }, []);
   const run = async () => {
     setBusy(true);
     setError('');

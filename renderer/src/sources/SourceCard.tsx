@@ -12,7 +12,7 @@ export function SourceCard({ source }: { source: SourceRow }) {
   const { db, info } = useServices();
   const [confirm, setConfirm] = useState(false);
   const s = source.summary;
-  const stats: [string, string][] = [['Duration', formatDuration(s.duration)]];
+  const stats: [string, string][] = [[source.kind === 'events' ? 'Span of events' : 'Duration', formatDuration(s.duration)]];
   if (source.kind === 'tracking') {
     stats.push(['Rate', `${s.rate} Hz`], ['Frames', (s.frames ?? 0).toLocaleString('en')], ['Objects', String(s.objects ?? 0)]);
     if (s.players) stats.push(['Players', `${s.players.home} home · ${s.players.away} away${s.players.unknown ? ` · ${s.players.unknown} unassigned` : ''}`]);
@@ -62,12 +62,12 @@ export function SourceCard({ source }: { source: SourceRow }) {
           <thead>
             <tr>
               <th>Period</th>
-              <th>From</th>
-              <th>To</th>
-              <th>Length</th>
-              {source.kind === 'tracking' && <th>Frames</th>}
-              {source.kind === 'tracking' && <th>Missing</th>}
-              {source.kind === 'events' && <th>Events</th>}
+              <th className="num">From</th>
+              <th className="num">To</th>
+              <th className="num">Length</th>
+              {source.kind === 'tracking' && <th className="num">Frames</th>}
+              {source.kind === 'tracking' && <th className="num">Missing frames</th>}
+              {source.kind === 'events' && <th className="num">Events</th>}
             </tr>
           </thead>
           <tbody>

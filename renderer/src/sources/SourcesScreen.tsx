@@ -130,7 +130,7 @@ export function SourcesScreen({ projectId, busyElsewhere }: { projectId: number;
           <ProblemList problems={report.warnings} rejectedRows={report.rejectedRows} fileName={report.fileName} />
         </section>
       )}
-      {sources && sources.length === 0 && !head && (
+      {sources && sources.length === 0 && !head && !busyElsewhere && (
         <div className="empty">
           <p>No sources in this match project yet.</p>
           <p className="muted">Open the tracking file, the event log and the footage of the match. Each is checked and mapped before anything is stored.</p>

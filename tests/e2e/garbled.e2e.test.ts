@@ -1,0 +1,93 @@
+/**
+ * Bad input through the in-app chooser: a garbled event log is refused with a located
+ * problem list and nothing stored; a file that is neither source is not importable.
+ */
+import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'papaparse';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openThroughChooser, shot, startApp, type RunningApp } from './harness.ts';
+
+let app: RunningApp;
+let dir: string;
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), 'wm-garbled-'));
+  // An event log with a good header and 40 good rows, where four rows are damaged: broken
+  // times on file lines 6, 15 and 24 and a row cut short on line 33. 4 of 44 rows is more
+  // than the importer accepts, so the whole file must be refused.
+  const rows = ['period,clock,event,team,player,x,y'];
+  const kinds = ['Pass', 'Pass', 'Throw In', 'Pass', 'Goal Kick', 'Corner', 'Free Kick'];
+  for (let i = 0, good = 0; rows.length < 45; i++) {
+    const line = rows.length + 1;
+    if (line === 6) rows.push('1,0q:1x.3,Pass,Harbour Town,6,-10,8');
+    else if (line === 15) rows.push('1,??:??,Throw In,Moor Rovers,2,20,34');
+    else if (line === 24) rows.push('1,x,Corner,Moor Rovers,11,52.5,-34');
+    else if (line === 33) rows.push('1');
+    else {
+      const t = good * 7.5;
+      rows.push(`1,${String(Math.floor(t / 60)).padStart(2, '0')}:${(t % 60).toFixed(1).padStart(4, '0')},${good === 0 ? 'Kick Off' : kinds[good % kinds.length]},${good % 2 ? 'Moor Rovers' : 'Harbour Town'},${(good % 11) + 1},${(good % 9) * 5 - 20},${(good % 5) * 6 - 12}`);
+      good++;
+    }
+  }
+  writeFileSync(join(dir, 'garbled-events.csv'), rows.join('\n') + '\n');
+  // Bytes that are no text table at all.
+  writeFileSync(join(dir, 'noise.csv'), Buffer.from(Array.from({ length: 3000 }, (_, i) => (i * 7919 + 13) % 256)));
+  app = await startApp();
+  await app.page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 150_000 });
+});
+afterAll(async () => {
+  await app?.close();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+describe('bad input', () => {
+  it('refuses a garbled event log, lists where and why, and stores nothing', async () => {
+    const { page } = app;
+    const before = await page.getByRole('article').count();
+    await openThroughChooser(page, dir, ['garbled-events.csv']);
+    const panel = page.getByRole('region', { name: 'Mapping for garbled-events.csv' });
+    await panel.waitFor();
+    await panel.getByRole('button', { name: /^Import/ }).click();
+    const problems = panel.getByRole('region', { name: 'Problems' });
+    await problems.waitFor({ timeout: 60_000 });
+    await panel.getByRole('alert').filter({ hasText: 'Import refused' }).waitFor();
+    await shot(page, '10-garbled-problems');
+    // Each damaged line is named (file line numbers, header = line 1).
+    const lineCells = await problems.locator('tbody tr td:nth-child(3)').allInnerTexts();
+    for (const line of ['6', '15', '24', '33']) expect(lineCells).toContain(line);
+    expect(await problems.locator('tbody tr td:nth-child(2)').first().innerText()).toBe('garbled-events.csv');
+
+    // Rejected rows can be saved; the file reads back with papaparse (RFC 4180 CSV).
+    await problems.getByRole('button', { name: /Save \d+ rejected row/ }).click();
+    const status = problems.getByRole('status');
+    await status.waitFor();
+    const text = await status.innerText();
+    const m = /Saved (\d+) rows to (.+)$/.exec(text);
+    expect(m, text).not.toBeNull();
+    const saved = m![2];
+    expect(existsSync(saved)).toBe(true);
+    const back = parse<string[]>(readFileSync(saved, 'utf8').trim()).data;
+    expect(back[0]).toEqual(['line', 'reason', 'text']);
+    expect(back.slice(1).map((r) => r[0])).toEqual(expect.arrayContaining(['6', '15', '24', '33']));
+    rmSync(saved);
+
+    // Nothing stored: same sources after a reload.
+    await page.reload();
+    await page.getByRole('article').first().waitFor();
+    expect(await page.getByRole('article').count()).toBe(before);
+  });
+
+  it('does not offer to import a file that is neither tracking nor an event log', async () => {
+    const { page } = app;
+    await openThroughChooser(page, dir, ['noise.csv']);
+    const panel = page.getByRole('region', { name: 'Mapping for noise.csv' });
+    await panel.waitFor();
+    await expect.poll(() => panel.locator('.kind-label').innerText()).toBe('not recognised');
+    await panel.getByRole('region', { name: 'Problems' }).waitFor();
+    expect(await panel.getByRole('button', { name: /^Import/ }).isDisabled()).toBe(true);
+    await shot(page, '11-not-recognised');
+    await panel.getByRole('button', { name: 'Skip this file' }).click();
+    await panel.waitFor({ state: 'detached' });
+  });
+});
