@@ -80,7 +80,21 @@ describe('bad input', () => {
 
   it('does not offer to import a file that is neither tracking nor an event log', async () => {
     const { page } = app;
-    await openThroughChooser(page, dir, ['noise.csv']);
+    // Keyboard only: O opens the chooser, Enter lists the folder, arrows move, Space picks.
+    await page.locator('body').press('o');
+    const dialog = page.getByRole('dialog', { name: 'Open files' });
+    await dialog.getByLabel('Folder path').fill(dir);
+    await dialog.getByLabel('Folder path').press('Enter');
+    const list = dialog.getByRole('listbox', { name: 'Folder contents' });
+    await list.getByRole('option', { name: /noise\.csv/ }).waitFor();
+    await list.focus();
+    const active = async () => page.locator(`#${await list.getAttribute('aria-activedescendant')}`).innerText();
+    for (let i = 0; i < 10 && !(await active()).includes('noise.csv'); i++) await list.press('ArrowDown');
+    await list.press(' ');
+    expect(await list.getByRole('option', { name: /noise\.csv/ }).getAttribute('aria-selected')).toBe('true');
+    await dialog.getByRole('button', { name: /^Open 1/ }).focus();
+    await page.keyboard.press('Enter');
+    await dialog.waitFor({ state: 'detached' });
     const panel = page.getByRole('region', { name: 'Mapping for noise.csv' });
     await panel.waitFor();
     await expect.poll(() => panel.locator('.kind-label').innerText()).toBe('not recognised');

@@ -142,6 +142,22 @@ describe('Sources screen', () => {
     await shot(app.page, '07-after-restart');
   });
 
+  it('asks before removing a source, and the removal lasts', async () => {
+    const { page } = app;
+    const footage = card(page, 'Footage', 'footage.mp4');
+    await footage.getByRole('button', { name: 'Remove footage.mp4' }).click();
+    const dlg = page.getByRole('dialog', { name: 'Remove this source?' });
+    await dlg.getByRole('button', { name: 'Keep it' }).click();
+    await dlg.waitFor({ state: 'detached' });
+    expect(await page.getByRole('article').count()).toBe(3);
+    await footage.getByRole('button', { name: 'Remove footage.mp4' }).click();
+    await dlg.getByRole('button', { name: 'Remove source' }).click();
+    await expect.poll(() => page.getByRole('article').count()).toBe(2);
+    await page.reload();
+    await card(page, 'Tracking', 'tracking.csv').waitFor();
+    expect(await page.getByRole('article').count()).toBe(2);
+  });
+
   it('made no request to anything but the local host, and threw no page errors', () => {
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);
