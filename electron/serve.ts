@@ -26,6 +26,7 @@ import { pathToFileURL } from 'node:url';
 import { HostArgumentError, isHostCall, saveMetaSchema, validateArgs } from './host/api-schemas.ts';
 import { contentTypeFor, fileResponse } from './host/byte-range.ts';
 import { createHostService } from './host/host-service.ts';
+import { rendererContentType, resolveInside } from './host/static-files.ts';
 import { contentSecurityPolicy, isolationHeaders } from './host/window-options.ts';
 
 export interface BrowserHostOptions {
@@ -139,22 +140,12 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
   }
 
   async function serveRenderer(res: ServerResponse, pathname: string, head: boolean) {
-    let rel: string;
-    try {
-      rel = decodeURIComponent(pathname);
-    } catch {
-      throw new HttpError(400, 'malformed address');
-    }
-    if (rel.includes('\0') || rel.includes('\\') || rel.split('/').some((seg) => seg === '..' || seg.startsWith('.') && seg !== '')) {
-      throw new HttpError(400, 'refused: the address leaves the app folder');
-    }
-    if (rel === '/' || rel === '') rel = '/index.html';
-    const file = resolve(rendererDir, '.' + rel);
-    if (file !== rendererDir && !file.startsWith(rendererDir + sep)) throw new HttpError(400, 'refused: the address leaves the app folder');
+    const file = resolveInside(rendererDir, pathname);
+    if (!file) throw new HttpError(400, 'refused: the address leaves the app folder');
     const info = await stat(file).catch(() => null);
     if (!info?.isFile()) {
-      if (rel === '/index.html') {
-        throw new HttpError(503, `The app is not built: ${rendererDir}/index.html is missing. Run "npm run build" (or "npm start", which builds it).`);
+      if (file === join(rendererDir, 'index.html')) {
+        throw new HttpError(503, `The app is not built: ${file} is missing. Run "npm run build" (or "npm start", which builds it).`);
       }
       throw new HttpError(404, 'not found');
     }
@@ -169,19 +160,10 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
       send(res, 200, html, 'text/html; charset=utf-8');
       return;
     }
-    const r = fileResponse(file, info.size, undefined, rendererType(file), head);
+    const r = fileResponse(file, info.size, undefined, rendererContentType(file), head);
     res.writeHead(r.status, { ...common, ...r.headers });
     if (r.body) r.body.pipe(res);
     else res.end();
-  }
-
-  function rendererType(file: string): string {
-    const types: Record<string, string> = {
-      '.js': 'text/javascript; charset=utf-8', '.mjs': 'text/javascript; charset=utf-8', '.css': 'text/css; charset=utf-8',
-      '.wasm': 'application/wasm', '.map': 'application/json', '.svg': 'image/svg+xml', '.ico': 'image/x-icon',
-      '.woff2': 'font/woff2', '.woff': 'font/woff', '.ttf': 'font/ttf',
-    };
-    return types[extname(file).toLowerCase()] ?? contentTypeFor(file);
   }
 
   async function serveOpenedFile(req: IncomingMessage, res: ServerResponse, rest: string, head: boolean) {

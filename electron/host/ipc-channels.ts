@@ -1,0 +1,21 @@
+/**
+ * IPC channel names and error unwrapping shared by electron/main.ts and preload.ts.
+ * Example: channelFor('probeFootage') → 'whistlemark:probeFootage'
+ */
+import type { HostCall } from '../../shared-types/host-api.ts';
+
+export const CHANNEL_PREFIX = 'whistlemark:';
+
+export function channelFor(call: HostCall): string {
+  return CHANNEL_PREFIX + call;
+}
+
+/**
+ * Electron wraps errors thrown in ipcMain.handle as
+ * "Error invoking remote method 'whistlemark:x': Error: <message>"; the renderer should
+ * see only <message>, the same text browser mode gives.
+ */
+export function unwrapIpcError(error: unknown): string {
+  const message = error instanceof Error ? error.message : String(error);
+  return message.replace(/^Error invoking remote method '[^']*': (?:[A-Za-z]*Error: )?/, '');
+}
