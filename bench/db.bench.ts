@@ -2,9 +2,19 @@
  * Project database: store a full match of tracking (2 x 45 min, 25 Hz, 23 objects) in 60 s
  * blocks, then load one period back. Node with fake-indexeddb (the W3C IndexedDB API in
  * JavaScript), compared with one plain IndexedDB put/get of the same period as a single
- * record through fake-indexeddb directly. Prints figures; never fails on a timing.
+ * record through fake-indexeddb directly. Then the same in Debian Chromium's real
+ * IndexedDB (bench/db-browser-entry.ts, bundled by vite). Prints figures; never fails on a
+ * timing.
  */
 import 'fake-indexeddb/auto';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium } from 'playwright-core';
+import { build } from 'vite';
+import type { BrowserBenchResult } from './db-browser-entry.ts';
 import Dexie from 'dexie';
 import { WhistlemarkDb } from '../renderer/src/db/database.ts';
 import { createProject, loadTrackingPeriod, storeSource } from '../renderer/src/db/store.ts';
@@ -87,4 +97,52 @@ async function main() {
   db.close();
   await Dexie.delete('bench-db');
 }
+/** Bundle the browser half, serve it on 127.0.0.1 and run it in headless Chromium. */
+async function inChromium() {
+  const dir = mkdtempSync(join(tmpdir(), 'wm-db-bench-'));
+  await build({
+    configFile: false,
+    logLevel: 'warn',
+    build: { outDir: dir, emptyOutDir: false, minify: false, lib: { entry: new URL('./db-browser-entry.ts', import.meta.url).pathname, formats: ['es'], fileName: () => 'bench.js' } },
+  });
+  writeFileSync(join(dir, 'index.html'), '<!doctype html><meta charset="utf-8"><script type="module">import { runBrowserBench } from "./bench.js"; window.runBrowserBench = runBrowserBench;</script>');
+  const server = createServer((req, res) => {
+    const name = req.url === '/' ? 'index.html' : (req.url ?? '').slice(1);
+    if (!/^[\w.-]+$/.test(name)) return res.writeHead(404).end();
+    try {
+      const body = readFileSync(join(dir, name));
+      res.writeHead(200, { 'content-type': name.endsWith('.js') ? 'text/javascript' : 'text/html' }).end(body);
+    } catch {
+      res.writeHead(404).end();
+    }
+  });
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const home = join(dir, 'home');
+  const browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ['--no-sandbox', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1'],
+    env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, '.config'), XDG_CACHE_HOME: join(home, '.cache') },
+  });
+  try {
+    const page = await browser.newPage();
+    await page.goto(`http://127.0.0.1:${(server.address() as AddressInfo).port}/`);
+    await page.waitForFunction(() => 'runBrowserBench' in window);
+    const r = await page.evaluate(
+      ([f, o]) => (window as unknown as { runBrowserBench: (f: number, o: number) => Promise<BrowserBenchResult> }).runBrowserBench(f, o),
+      [FRAMES, OBJECTS] as const,
+    );
+    const load = [...r.loadMs].sort((a, b) => a - b)[1];
+    console.log(`\nChromium (real IndexedDB), same data, ${r.mb.toFixed(1)} MB:`);
+    console.log(`whistlemark store: ${r.storeMs.toFixed(0)} ms (${(r.mb / (r.storeMs / 1000)).toFixed(0)} MB/s); load one period (median of 3): ${load.toFixed(0)} ms`);
+    console.log(`plain IndexedDB put of 2 whole periods: ${r.plainStoreMs.toFixed(0)} ms; get one: ${r.plainLoadMs.toFixed(0)} ms`);
+    console.log(`ratio store ours/plain: ${(r.storeMs / r.plainStoreMs).toFixed(2)}; load ours/plain: ${(load / r.plainLoadMs).toFixed(2)}`);
+  } finally {
+    await browser.close();
+    server.close();
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 await main();
+await inChromium().catch((e) => console.log(`(Chromium part skipped: ${(e as Error).message})`));

@@ -151,9 +151,13 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
             ))}
           </ul>
         )}
-        <label className="check">
-          <input type="checkbox" checked={remember} onChange={(e) => setRemember(e.target.checked)} disabled={!!running} /> Remember this mapping for files with the same columns
-        </label>
+        {mapping ? (
+          <label className="check">
+            <input type="checkbox" checked={remember} onChange={(e) => setRemember(e.target.checked)} disabled={!!running} /> Remember this mapping for files with the same columns
+          </label>
+        ) : (
+          <p className="muted">Nothing to import. If this is tracking or an event log after all, say so above and map its columns by hand.</p>
+        )}
         {progress && <ProgressBar progress={progress} label={`Import of ${file.name}`} />}
         {note && <p className="muted" role="status">{note}</p>}
         <div className="actions">
@@ -163,7 +167,7 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
             </button>
           ) : (
             <button ref={importButton} type="button" className="primary" disabled={!mapping || gaps.length > 0} onClick={run}>
-              Import {mapping?.kind === 'events' ? 'event log' : mapping?.kind === 'tracking' ? 'tracking' : ''}
+              {mapping?.kind === 'events' ? 'Import event log' : mapping?.kind === 'tracking' ? 'Import tracking' : 'Import'}
             </button>
           )}
         </div>
