@@ -151,7 +151,8 @@ export interface FootageProbe {
 // ---------------------------------------------------------------------------------------
 // Anchors, clock fits, corrections
 
-export type AnchorKind = RestartKind | 'period_start' | 'period_end' | 'whistle' | 'cut';
+/** 'touch': an open-play ball touch (a pass placed in tracking by refinement), used as a clock point. */
+export type AnchorKind = RestartKind | 'period_start' | 'period_end' | 'whistle' | 'cut' | 'touch';
 
 export interface Anchor {
   id: string;
