@@ -22,7 +22,6 @@ export class TonalFrameAnalyser {
   private readonly lowBin: number;
   private readonly highBin: number;
   private readonly nyquistBin: number;
-  private readonly db: Float64Array;
   private readonly scratch: Float64Array;
 
   constructor(
@@ -37,25 +36,23 @@ export class TonalFrameAnalyser {
     if (this.highBin - this.lowBin < 8) {
       throw new RangeError(`whistle detector: band ${opts.bandLowHz}–${opts.bandHighHz} Hz leaves too few bins at ${opts.sampleRate} Hz`);
     }
-    this.db = new Float64Array(this.nyquistBin + 1);
     this.scratch = new Float64Array(this.nyquistBin + 1);
   }
 
   analyse(power: Float32Array | Float64Array): TonalFrame {
-    const { db, lowBin, highBin, opts } = this;
+    const { lowBin, highBin, opts } = this;
+    // Peak and median in linear power: the median commutes with the log, so only the
+    // ratio needs one.
     let peak = lowBin;
-    for (let k = lowBin; k <= highBin; k++) {
-      db[k] = 10 * Math.log10(power[k] + 1e-20);
-      if (db[k] > db[peak]) peak = k;
-    }
-    const median = medianOf(db, lowBin, highBin + 1, this.scratch);
-    const prominenceDb = db[peak] - median;
-    const peakHz = this.interpolatedHz(power, peak);
-    const result: TonalFrame = { tonal: false, peakHz, prominenceDb, harmonic: undefined };
+    for (let k = lowBin + 1; k <= highBin; k++) if (power[k] > power[peak]) peak = k;
+    const median = medianOf(power, lowBin, highBin + 1, this.scratch);
+    const prominenceDb = 10 * Math.log10((power[peak] + 1e-20) / (median + 1e-20));
+    const result: TonalFrame = { tonal: false, peakHz: peak * this.binHz, prominenceDb, harmonic: undefined };
     // A peak on the band's edge is the slope of something outside the band, not a tone in it.
     if (prominenceDb < opts.minProminenceDb || peak === lowBin || peak === highBin) return result;
     result.tonal = true;
-    const harmonicDb = this.harmonicDb(power, peakHz);
+    result.peakHz = this.interpolatedHz(power, peak);
+    const harmonicDb = this.harmonicDb(power, result.peakHz);
     if (harmonicDb !== undefined) result.harmonic = harmonicDb >= opts.minHarmonicDb;
     return result;
   }
@@ -78,12 +75,10 @@ export class TonalFrameAnalyser {
     const centre = Math.round((2 * fundamentalHz) / this.binHz);
     const top = Math.floor(this.nyquistBin * 0.95);
     if (centre + 2 > top) return undefined;
-    const { db } = this;
     const from = Math.max(1, Math.round(centre * 0.75));
     const to = Math.min(top, Math.round(centre * 1.25));
-    for (let k = from; k <= to; k++) db[k] = 10 * Math.log10(power[k] + 1e-20);
-    let best = -Infinity;
-    for (let k = centre - 2; k <= centre + 2; k++) best = Math.max(best, db[k]);
-    return best - medianOf(db, from, to + 1, this.scratch);
+    let best = 0;
+    for (let k = centre - 2; k <= centre + 2; k++) best = Math.max(best, power[k]);
+    return 10 * Math.log10((best + 1e-20) / (medianOf(power, from, to + 1, this.scratch) + 1e-20));
   }
 }

@@ -8,7 +8,7 @@
  * exec() is synchronous: cancelling is noticed at the next write, which then fails with
  * EIO so ffmpeg stops cleanly.
  */
-import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
+import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
 import { basename } from 'node:path';
 import { loadEmbeddedCore } from './embedded-core.ts';
 import { PcmChunker } from './pcm-chunker.ts';
@@ -47,7 +47,15 @@ const diskReader = {
 
 const EIO = 29;
 
-export async function decodeEmbedded(file: string, opts: DecodeOptions): Promise<DecodeResult> {
+export interface EmbeddedOptions extends DecodeOptions {
+  /**
+   * 'mount' (default): read the file in place. 'copy': write it whole into wasm memory
+   * first — kept so bench/whistle.bench.ts can measure what mounting saves.
+   */
+  input?: 'mount' | 'copy';
+}
+
+export async function decodeEmbedded(file: string, opts: EmbeddedOptions): Promise<DecodeResult> {
   const sampleRate = opts.sampleRate ?? 16000;
   const { signal } = opts;
   if (signal?.aborted) throw abortError(signal);
@@ -61,7 +69,8 @@ export async function decodeEmbedded(file: string, opts: DecodeOptions): Promise
     workerfs.reader = diskReader;
     const name = basename(file).replace(/[^\w.-]/g, '_') || 'input';
     FS.mkdir('/footage');
-    FS.mount(workerfs, { blobs: [{ name, data: fileSlice(fd, 0, fstatSync(fd).size) }] }, '/footage');
+    if (opts.input === 'copy') FS.writeFile(`/footage/${name}`, readFileSync(file));
+    else FS.mount(workerfs, { blobs: [{ name, data: fileSlice(fd, 0, fstatSync(fd).size) }] }, '/footage');
 
     let failed: unknown = null;
     const chunker = new PcmChunker((pcm) => {

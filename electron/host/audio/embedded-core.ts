@@ -22,6 +22,7 @@ export interface FfmpegCore {
 
 export interface EmscriptenFs {
   mkdir(path: string): void;
+  writeFile(path: string, data: Uint8Array): void;
   mount(type: unknown, opts: Record<string, unknown>, mountpoint: string): void;
   unmount(mountpoint: string): void;
   makedev(major: number, minor: number): number;
