@@ -62,6 +62,7 @@ let mainWindow: BrowserWindowLike | undefined;
 
 const service = createHostService({
   mode: 'electron',
+  appVersion: app.getVersion(),
   fileUrl: (fileId, name) => `${FILE_SCHEME}://file/${fileId}/${encodeURIComponent(name)}`,
   demoDir,
   crossOriginIsolated: true,

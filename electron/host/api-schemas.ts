@@ -50,9 +50,16 @@ function describe(issue: z.core.$ZodIssue): string {
 
 /** Validates `args` for `call`; throws HostArgumentError naming the call and argument. */
 export function validateArgs<C extends HostCall>(call: C, args: unknown): HostArgs<C> {
-  // Trailing undefined arguments are dropped by JSON; treat [] like [undefined] for optionals.
-  const list = Array.isArray(args) ? args : args;
-  const result = HOST_ARG_SCHEMAS[call].safeParse(list);
+  if (!Array.isArray(args)) throw new HostArgumentError(`${call}: arguments: expected a list of arguments, received ${typeof args}`);
+  const schema = HOST_ARG_SCHEMAS[call];
+  // Arity first, in words: "expected 2 arguments, got 1" reads better than a tuple error.
+  const items = (schema.def as { items: { safeParse(v: unknown): { success: boolean } }[] }).items;
+  const required = items.filter((item) => !item.safeParse(undefined).success).length;
+  if (args.length < required || args.length > items.length) {
+    const expected = required === items.length ? `${items.length}` : `${required} to ${items.length}`;
+    throw new HostArgumentError(`${call}: expected ${expected} argument${items.length === 1 ? '' : 's'}, got ${args.length}`);
+  }
+  const result = schema.safeParse(args);
   if (!result.success) {
     throw new HostArgumentError(`${call}: ${result.error.issues.map(describe).join('; ')}`);
   }

@@ -27,6 +27,8 @@ export interface HostServiceOptions {
    */
   pickSavePath?: (suggestedName: string, directory?: string) => Promise<string | null>;
   crossOriginIsolated?: boolean;
+  /** Version to report; package.json's when absent. */
+  appVersion?: string;
 }
 
 export interface HostService {
@@ -34,13 +36,13 @@ export interface HostService {
   files: OpenedFiles;
 }
 
-let version: string | undefined;
-async function appVersion(): Promise<string> {
-  if (!version) {
-    const pkg = JSON.parse(await readFile(new URL('../../package.json', import.meta.url), 'utf8')) as { version?: string };
-    version = pkg.version ?? '0.0.0';
-  }
-  return version;
+let packageVersion: Promise<string> | undefined;
+/** The project's version from package.json (browser mode; Electron passes its own). */
+function readPackageVersion(): Promise<string> {
+  packageVersion ??= readFile(new URL('../../package.json', import.meta.url), 'utf8')
+    .then((t) => String((JSON.parse(t) as { version?: string }).version ?? 'unknown'))
+    .catch(() => 'unknown');
+  return packageVersion;
 }
 
 function localUserName(): string {
@@ -60,7 +62,7 @@ export function createHostService(opts: HostServiceOptions): HostService {
     async info(): Promise<HostInfo> {
       return {
         mode: opts.mode,
-        appVersion: await appVersion(),
+        appVersion: opts.appVersion ?? (await readPackageVersion()),
         userName: localUserName(),
         nativeDialogs: Boolean(opts.pickPaths),
         crossOriginIsolated: opts.crossOriginIsolated,

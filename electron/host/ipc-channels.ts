@@ -16,6 +16,10 @@ export function channelFor(call: HostCall): string {
  * see only <message>, the same text browser mode gives.
  */
 export function unwrapIpcError(error: unknown): string {
-  const message = error instanceof Error ? error.message : String(error);
+  // Not `instanceof Error`: across the context bridge errors may come from another realm.
+  const message =
+    typeof error === 'object' && error !== null && typeof (error as { message?: unknown }).message === 'string'
+      ? (error as { message: string }).message
+      : String(error);
   return message.replace(/^Error invoking remote method '[^']*': (?:[A-Za-z]*Error: )?/, '');
 }

@@ -209,8 +209,8 @@ describe('API arguments are validated (zod) with a clear message', () => {
       ['openPaths', [[]], /openPaths: argument 1: needs at least one path/],
       ['probeFootage', ['../../etc/passwd'], /probeFootage: argument 1: is not a file id/],
       ['chooseFiles', ['video', true], /chooseFiles: argument 1: /],
-      ['info', [1], /info: /],
-      ['demoMatch', { a: 1 }, /demoMatch: arguments: /],
+      ['info', [1], /info: expected 0 arguments, got 1/],
+      ['demoMatch', { a: 1 }, /demoMatch: arguments: expected a list/],
     ];
     for (const [call, args, message] of bad) {
       const r = await api(call, args);
