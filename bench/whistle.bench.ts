@@ -14,7 +14,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import FFT from 'fft.js';
 import { RealFft, WhistleDetector, type WhistleCandidate } from '../engine/audio/index.ts';
+import { cpus, loadavg } from 'node:os';
 import { decodeEmbedded } from '../electron/host/audio/decode-embedded.ts';
+import { loadEmbeddedCore } from '../electron/host/audio/embedded-core.ts';
 import { decodeNative, findNativeFfmpeg } from '../electron/host/audio/decode-native.ts';
 
 const minutes = Number(process.env.WM_BENCH_MINUTES ?? 90);
@@ -96,7 +98,10 @@ async function main(): Promise<void> {
   const dir = mkdtempSync(join(tmpdir(), 'wm-whistle-bench-'));
   try {
     const file = makeRecording(dir);
-    console.log(`decode (16 kHz mono) + detect, ${minutes} min:`);
+    const c0 = performance.now();
+    await loadEmbeddedCore();
+    console.log(`embedded core: compile + first instance ${((performance.now() - c0) / 1000).toFixed(1)} s (once per process, not counted below)`);
+    console.log(`decode (16 kHz mono) + detect, ${minutes} min (load average ${loadavg()[0].toFixed(1)} on ${cpus().length} cores):`);
     const native = await scan('native ffmpeg', (onChunk) => decodeNative(file, { onChunk }));
     const mounted = await scan('embedded, file mounted', (onChunk) => decodeEmbedded(file, { onChunk }));
     const copied = await scan('embedded, file copied in', (onChunk) => decodeEmbedded(file, { onChunk, input: 'copy' }));
