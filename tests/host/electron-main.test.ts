@@ -10,7 +10,7 @@ import { windowOptions } from '../../electron/host/window-options.ts';
 // electron/main.ts and preload.ts, bundled exactly as npm start bundles them, run against
 // a recording stand-in for the electron module (the real binary cannot be installed
 // here). The expectations are Electron's security checklist
-// (electronjs.org/docs/latest/tutorial/security, items 2-4, 6-7, 13-15, 17-18) and RFC 9110
+// (electronjs.org/docs/latest/tutorial/security; item numbers from memory) and RFC 9110
 // for the byte ranges.
 
 interface FakeState {
