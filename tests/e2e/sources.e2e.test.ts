@@ -111,13 +111,14 @@ describe('Sources screen', () => {
     const byKind = await ev.getByRole('list', { name: 'Events by kind' }).locator('strong').allInnerTexts();
     expect(byKind.map(Number).reduce((a, b) => a + b, 0)).toBe(evRows - rejected);
 
-    // Footage: codec and frame count as Debian's ffprobe counts them.
+    // Footage: codec, size and frame count as Debian's ffprobe reads the container.
     const probe = JSON.parse(
-      execFileSync('ffprobe', ['-v', 'error', '-select_streams', 'v:0', '-count_frames', '-show_entries', 'stream=codec_name,nb_read_frames', '-of', 'json', join(DEMO_DIR, 'footage.mp4')], { encoding: 'utf8' }),
-    ) as { streams: { codec_name: string; nb_read_frames: string }[] };
+      execFileSync('ffprobe', ['-v', 'error', '-select_streams', 'v:0', '-show_entries', 'stream=codec_name,nb_frames,width,height', '-of', 'json', join(DEMO_DIR, 'footage.mp4')], { encoding: 'utf8' }),
+    ) as { streams: { codec_name: string; nb_frames: string; width: number; height: number }[] };
     const ft = card(page, 'Footage', 'footage.mp4');
-    expect(await stat(ft, 'Video').innerText()).toContain(probe.streams[0].codec_name);
-    expect(await num(stat(ft, 'Frames'))).toBe(Number(probe.streams[0].nb_read_frames));
+    const v = probe.streams[0];
+    expect(await stat(ft, 'Video').innerText()).toBe(`${v.codec_name} ${v.width}×${v.height}`);
+    expect(await num(stat(ft, 'Frames'))).toBe(Number(v.nb_frames));
   });
 
   it('keeps both projects and all sources after a reload and a browser restart', async () => {
