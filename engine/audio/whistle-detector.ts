@@ -25,7 +25,7 @@ export class WhistleDetector {
   readonly frameSize: number;
   readonly hopSize: number;
   private readonly fft: RealFft;
-  private readonly window: Float64Array;
+  private readonly hann: Float64Array;
   private readonly frame: Float64Array;
   private readonly power: Float64Array;
   private readonly analyser: TonalFrameAnalyser;
@@ -44,8 +44,8 @@ export class WhistleDetector {
     this.frameSize = 2 ** Math.round(Math.log2(0.032 * opts.sampleRate));
     this.hopSize = Math.round(0.01 * opts.sampleRate);
     this.fft = new RealFft(this.frameSize);
-    this.window = new Float64Array(this.frameSize);
-    for (let i = 0; i < this.frameSize; i++) this.window[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / this.frameSize);
+    this.hann = new Float64Array(this.frameSize);
+    for (let i = 0; i < this.frameSize; i++) this.hann[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / this.frameSize);
     this.frame = new Float64Array(this.frameSize);
     this.power = new Float64Array(this.frameSize / 2 + 1);
     this.analyser = new TonalFrameAnalyser(opts, this.frameSize);
@@ -83,8 +83,8 @@ export class WhistleDetector {
   }
 
   private analyseFrame(data: Float32Array, start: number, out: WhistleCandidate[]): void {
-    const { frame, window } = this;
-    for (let i = 0; i < this.frameSize; i++) frame[i] = data[start + i] * window[i];
+    const { frame, hann } = this;
+    for (let i = 0; i < this.frameSize; i++) frame[i] = data[start + i] * hann[i];
     this.fft.power(frame, this.power);
     const tonal = this.analyser.analyse(this.power);
     const index = this.frameIndex++;
