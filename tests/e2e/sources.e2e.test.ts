@@ -71,6 +71,8 @@ describe('Sources screen', () => {
     const eventsPanel = page.getByRole('region', { name: 'Mapping for events.csv' });
     await eventsPanel.waitFor({ timeout: 120_000 });
     await expect.poll(() => eventsPanel.locator('.kind-label').innerText()).toBe('event log');
+    // An edit the analyst makes here is what mapping memory must give back later.
+    await eventsPanel.getByRole('group', { name: 'Coordinates' }).getByLabel('Pitch width').fill('67');
     await shot(page, '05-mapping-events');
     await eventsPanel.getByRole('button', { name: 'Import event log' }).click();
 
@@ -141,6 +143,19 @@ describe('Sources screen', () => {
     // The demo is made once: a restart must not add a second one.
     expect((await read(app.page)).projects.filter((p) => /demo/i.test(p))).toHaveLength(1);
     await shot(app.page, '07-after-restart');
+  });
+
+  it('offers the remembered mapping for the next file with the same columns', async () => {
+    const { page } = app;
+    await openThroughChooser(page, DEMO_DIR, ['events.csv']);
+    const panel = page.getByRole('region', { name: 'Mapping for events.csv' });
+    await panel.waitFor();
+    await panel.getByText('mapping remembered from an earlier file').waitFor();
+    // Detection alone would say 68 m (DEFAULT_PITCH); 67 is the analyst's own edit.
+    expect(await panel.getByRole('group', { name: 'Coordinates' }).getByLabel('Pitch width').inputValue()).toBe('67');
+    await panel.getByRole('button', { name: 'Skip this file' }).click();
+    await panel.waitFor({ state: 'detached' });
+    expect(await page.getByRole('article').count()).toBe(3);
   });
 
   it('asks before removing a source, and the removal lasts', async () => {

@@ -49,7 +49,9 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
   };
 
   const gaps = mapping ? mappingGaps(mapping, detection.header) : ['Say what kind of file this is.'];
-  const detectionErrors = kind === 'unknown' ? detection.problems : [];
+  // What detection itself noticed (a header-only head, an unreadable start), while the
+  // analyst keeps its verdict; once they override the kind, those notes no longer apply.
+  const detectionProblems = kind === prepared.kind ? detection.problems : [];
 
   const run = async () => {
     if (!mapping || gaps.length) return;
@@ -127,7 +129,7 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
 
       <Preview header={detection.header} rows={detection.preview} />
 
-      {detectionErrors.length > 0 && <ProblemList problems={detectionErrors} rejectedRows={[]} fileName={file.name} />}
+      {detectionProblems.length > 0 && !refused && <ProblemList problems={detectionProblems} rejectedRows={[]} fileName={file.name} />}
 
       {mapping?.kind === 'tracking' && (
         <TrackingMappingEditor value={mapping as TrackingMapping} header={detection.header} onChange={(m) => setMapping(m)} />
