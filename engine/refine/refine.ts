@@ -1,0 +1,209 @@
+/**
+ * Event refinement: every logged event gets candidate moments in tracking within a
+ * kind-specific window around its clock-mapped time, each scored (score.ts); the choice
+ * is made jointly for all events of a period by a monotone dynamic programme
+ * (choose.ts). Output: one ProposedCorrection per event, in log order.
+ */
+import type { ChangeKind, ClockFit, EventLog, MatchEvent, PeriodId, ProposedCorrection, TrackingData, TrackingPeriod } from '../../shared-types/domain.ts';
+import { isRestartKind } from '../../shared-types/domain.ts';
+import type { RestartAnchor } from '../anchors/restarts.ts';
+import { column } from '../anchors/restarts.ts';
+import { mapTime } from '../fit/clock.ts';
+import { ballTouches } from './kicks.ts';
+import { chooseMonotone, type EventOptions } from './choose.ts';
+import { candidateKindsFor, kindWindow, NULL_SCORE, scoreCandidate, type Candidate, type PlayerAtBall } from './score.ts';
+
+/** Everything refinement reads from one tracking period, computed once. */
+export interface PeriodScene {
+  period: TrackingPeriod;
+  candidates: Candidate[];
+  /** Object index by "home:7". */
+  playerIndex: Map<string, number>;
+  duration: number;
+}
+
+/** `buildScenes(tracking, restarts) -> Map<period, PeriodScene>` */
+export function buildScenes(tracking: TrackingData, restarts: RestartAnchor[]): Map<PeriodId, PeriodScene> {
+  const nObj = tracking.objects.length;
+  const playerIndex = new Map<string, number>();
+  tracking.objects.forEach((o, i) => {
+    if (o.role === 'player' && o.team && o.shirt !== undefined) playerIndex.set(`${o.team}:${o.shirt}`, i);
+  });
+  const scenes = new Map<PeriodId, PeriodScene>();
+  for (const p of tracking.periods) {
+    const candidates: Candidate[] = [];
+    const own = restarts.filter((r) => r.period === p.period && r.kind !== 'period_start' && r.kind !== 'period_end');
+    for (const r of own)
+      candidates.push({ t: r.t, frameIndex: r.frameIndex, x: r.x ?? 0, y: r.y ?? 0, kind: 'restart', dv: 10, restartKind: r.kind, restartId: r.id });
+    if (tracking.ballIndex >= 0) {
+      const bx = column(p.x, tracking.ballIndex, nObj, p.frameCount);
+      const by = column(p.y, tracking.ballIndex, nObj, p.frameCount);
+      for (const k of ballTouches(bx, by, tracking.rate)) {
+        // A touch at a restart's moment is that restart.
+        if (own.some((r) => Math.abs(r.t - k.t) < 0.2)) continue;
+        candidates.push({ t: k.t, frameIndex: k.frameIndex, x: k.x, y: k.y, kind: 'touch', dv: k.dv });
+      }
+      candidates.push(...goalLineCrossings(bx, by, tracking));
+    }
+    candidates.sort((a, b) => a.t - b.t);
+    scenes.set(p.period, { period: p, candidates, playerIndex, duration: (p.frameCount - 1) / tracking.rate });
+  }
+  return scenes;
+}
+
+/** Frames where the ball crosses a goal line between the posts (Law 1: 7.32 m apart). */
+function goalLineCrossings(bx: Float64Array, by: Float64Array, tracking: TrackingData): Candidate[] {
+  const hl = tracking.pitch.length / 2;
+  const out: Candidate[] = [];
+  let last = -Infinity;
+  for (let f = 1; f < bx.length; f++) {
+    const a = bx[f - 1], b = bx[f];
+    if (Number.isNaN(a) || Number.isNaN(b)) continue;
+    for (const side of [-1, 1]) {
+      if (side * a <= hl && side * b > hl) {
+        const u = (side * hl - a) / (b - a);
+        const y = by[f - 1] + u * (by[f] - by[f - 1]);
+        const t = (f - 1 + u) / tracking.rate;
+        if (Math.abs(y) <= 7.32 / 2 + 0.5 && t - last > 2) {
+          out.push({ t, frameIndex: f, x: side * hl, y, kind: 'goal_line', dv: 0 });
+          last = t;
+        }
+      }
+    }
+  }
+  return out;
+}
+
+function playerAt(e: MatchEvent, scene: PeriodScene, tracking: TrackingData, c: Candidate): PlayerAtBall | undefined {
+  if (!e.team) return undefined;
+  const p = scene.period;
+  const nObj = tracking.objects.length;
+  const f = Math.min(p.frameCount - 1, Math.max(0, Math.round(c.t * tracking.rate)));
+  const shirt = e.player !== undefined ? Number.parseInt(e.player, 10) : NaN;
+  const idx = Number.isFinite(shirt) ? scene.playerIndex.get(`${e.team}:${shirt}`) : undefined;
+  const distOf = (i: number) => Math.hypot(p.x[f * nObj + i] - c.x, p.y[f * nObj + i] - c.y);
+  if (idx !== undefined) {
+    const d = distOf(idx);
+    if (!Number.isNaN(d)) return { dist: d, tagged: true, label: `${e.team} ${shirt}` };
+  }
+  // No such shirt in tracking: the nearest player of the team stands in.
+  let best = Infinity;
+  tracking.objects.forEach((o, i) => {
+    if (o.role === 'player' && o.team === e.team) {
+      const d = distOf(i);
+      if (d < best) best = d;
+    }
+  });
+  return Number.isFinite(best) ? { dist: best, tagged: false, label: `${e.team} (nearest player)` } : undefined;
+}
+
+export interface RefineResult {
+  corrections: ProposedCorrection[];
+}
+
+/** Events that say nothing the tracking can show. */
+const UNPLACEABLE_WHY: Partial<Record<string, string>> = {
+  period_end: 'the end of a period has no ball signature in tracking',
+  other: 'this kind of event has no ball signature the engine looks for',
+};
+
+/**
+ * `refineEvents(tracking, log, fit, scenes) -> ProposedCorrection[]` (one per event, log
+ * order; unplaceable events keep the mapped logged time and say why).
+ */
+export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFit, scenes: Map<PeriodId, PeriodScene>): ProposedCorrection[] {
+  const out = new Array<ProposedCorrection>(log.events.length);
+  const byPeriod = new Map<PeriodId, number[]>();
+  log.events.forEach((e, i) => {
+    const list = byPeriod.get(e.period) ?? [];
+    list.push(i);
+    byPeriod.set(e.period, list);
+  });
+  for (const [period, idxs] of byPeriod) {
+    const scene = scenes.get(period);
+    const firstFrame = scene?.period.firstFrame ?? 0;
+    const frameOf = (t: number) => firstFrame + Math.round(t * tracking.rate);
+    const unplaced = (i: number, tp: number, reason: string): ProposedCorrection => {
+      const e = log.events[i];
+      return { eventId: e.id, trackingPeriod: period, trackingTime: tp, trackingFrame: Number.isFinite(tp) ? frameOf(tp) : NaN,
+        predictedTime: tp, x: e.x, y: e.y, change: 'none', confidence: 0, reason, placed: false };
+    };
+    const predicted = idxs.map((i) => mapTime(fit, period, log.events[i].t));
+    if (!scene) {
+      idxs.forEach((i, k) => (out[i] = unplaced(i, predicted[k], `tracking has no period ${period}`)));
+      continue;
+    }
+    // Candidates per event, then the joint choice.
+    const perEvent: { cands: Candidate[]; scores: number[] }[] = [];
+    const dp: EventOptions[] = [];
+    idxs.forEach((i, k) => {
+      const e = log.events[i];
+      const tp = predicted[k];
+      const kinds = candidateKindsFor(e.kind);
+      const w = kindWindow(e.kind);
+      const cands = kinds.length && Number.isFinite(tp) ? inWindow(scene.candidates, tp - w.before, tp + w.after).filter((c) => kinds.includes(c.kind)) : [];
+      const scores = cands.map((c) => scoreCandidate(e, c, tp, playerAt(e, scene, tracking, c)));
+      perEvent.push({ cands, scores });
+      dp.push({ options: cands.map((c, j) => ({ t: c.t, score: scores[j] })), nullScore: NULL_SCORE, mayTie: e.kind === 'period_start' || e.kind === 'goal' });
+    });
+    const picks = chooseMonotone(dp);
+    idxs.forEach((i, k) => {
+      const e = log.events[i];
+      const tp = predicted[k];
+      const { cands, scores } = perEvent[k];
+      if (!Number.isFinite(tp)) return void (out[i] = unplaced(i, tp, `no clock fit for period ${period}`));
+      if (tp < -5 || tp > scene.duration + 5) return void (out[i] = unplaced(i, tp, `the logged time maps to ${tp.toFixed(1)} s, outside the tracking of period ${period}; kept the logged time`));
+      const why = UNPLACEABLE_WHY[e.kind];
+      if (why) return void (out[i] = unplaced(i, tp, `${why}; kept the logged time`));
+      const pick = picks[k];
+      if (pick < 0) {
+        const w = kindWindow(e.kind);
+        const who = e.team ? `${e.team}${e.player ? ' ' + e.player : ''}` : 'anyone';
+        const what = cands.length ? `${cands.length} candidate moments, none convincing` : 'no ball touch';
+        return void (out[i] = unplaced(i, tp, `${what} for ${who} between ${w.before} s before and ${w.after} s after the logged time; kept the logged time`));
+      }
+      const c = cands[pick];
+      // Confidence: the chosen candidate's share among this event's options (softmax).
+      const top = Math.max(NULL_SCORE, ...scores);
+      let z = Math.exp(NULL_SCORE - top);
+      for (const s of scores) z += Math.exp(s - top);
+      const confidence = Math.exp(scores[pick] - top) / z;
+      const dt = c.t - tp;
+      const restart = isRestartKind(e.kind) || e.kind === 'period_start';
+      let x = e.x, y = e.y;
+      let moved = false;
+      if (restart && c.kind === 'restart') {
+        x = c.x;
+        y = c.y;
+        moved = e.x === undefined || e.y === undefined || Math.hypot(c.x - e.x, c.y - e.y) > 1.5;
+      }
+      const timed = Math.abs(dt) > 1 / tracking.rate;
+      const change: ChangeKind = timed && moved ? 'time+location' : timed ? 'time' : moved ? 'location' : 'none';
+      const when = Math.abs(dt) < 0.05 ? 'at the logged time' : `${Math.abs(dt).toFixed(1)} s ${dt > 0 ? 'after' : 'before'} the logged time`;
+      const p = playerAt(e, scene, tracking, c);
+      let reason: string;
+      if (c.kind === 'goal_line') reason = `ball crossed the goal line ${when}`;
+      else if (c.kind === 'restart') {
+        reason = `ball, still at (${c.x.toFixed(1)}, ${c.y.toFixed(1)}), played ${when}`;
+        if (p?.tagged) reason += ` by ${p.label}`;
+        if (moved && e.x !== undefined && e.y !== undefined) reason += `; ${Math.hypot(c.x - e.x, c.y - e.y).toFixed(1)} m from the logged place`;
+        if (c.restartKind !== (e.kind === 'period_start' ? 'kick_off' : e.kind)) reason += ` (tracking sees a ${c.restartKind!.replace('_', ' ')})`;
+      } else reason = p?.tagged ? `ball left ${p.label} ${when}` : `ball struck ${when}${p ? `, ${p.dist.toFixed(1)} m from the nearest ${e.team} player` : ''}`;
+      out[i] = { eventId: e.id, trackingPeriod: period, trackingTime: c.t, trackingFrame: frameOf(c.t), predictedTime: tp, x, y,
+        change, confidence, reason, placed: true };
+    });
+  }
+  return out;
+}
+
+/** Candidates with t in [lo, hi] (binary search on the time-sorted list). */
+function inWindow(cands: Candidate[], lo: number, hi: number): Candidate[] {
+  let a = 0, b = cands.length;
+  while (a < b) {
+    const m = (a + b) >> 1;
+    if (cands[m].t < lo) a = m + 1; else b = m;
+  }
+  const out: Candidate[] = [];
+  for (let i = a; i < cands.length && cands[i].t <= hi; i++) out.push(cands[i]);
+  return out;
+}
