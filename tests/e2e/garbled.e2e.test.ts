@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openThroughChooser, shot, startApp, type RunningApp } from './harness.ts';
+import { DEMO_DIR, openThroughChooser, shot, startApp, type RunningApp } from './harness.ts';
 
 let app: RunningApp;
 let dir: string;
@@ -92,6 +92,7 @@ describe('bad input', () => {
     for (let i = 0; i < 10 && !(await active()).includes('noise.csv'); i++) await list.press('ArrowDown');
     await list.press(' ');
     expect(await list.getByRole('option', { name: /noise\.csv/ }).getAttribute('aria-selected')).toBe('true');
+    await shot(page, '12-keyboard-chooser');
     await dialog.getByRole('button', { name: /^Open 1/ }).focus();
     await page.keyboard.press('Enter');
     await dialog.waitFor({ state: 'detached' });
@@ -103,5 +104,41 @@ describe('bad input', () => {
     await shot(page, '11-not-recognised');
     await panel.getByRole('button', { name: 'Skip this file' }).click();
     await panel.waitFor({ state: 'detached' });
+  });
+
+  it('a reload in the middle of an import leaves whole sources only (all-or-nothing)', async () => {
+    const { page } = app;
+    await openThroughChooser(page, DEMO_DIR, ['tracking.csv']);
+    const panel = page.getByRole('region', { name: 'Mapping for tracking.csv' });
+    await panel.getByRole('button', { name: 'Import tracking' }).click();
+    // Reload while the worker may still be reading: whether or not it got to its one
+    // transaction, the database must hold only complete sources.
+    await page.reload();
+    await page.getByRole('article').first().waitFor();
+    const check = await page.evaluate(async () => {
+      const db = await new Promise<IDBDatabase>((res, rej) => {
+        const r = indexedDB.open('whistlemark');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      const all = <T,>(store: string) =>
+        new Promise<T[]>((res, rej) => {
+          const r = db.transaction(store).objectStore(store).getAll();
+          r.onsuccess = () => res(r.result as T[]);
+          r.onerror = () => rej(r.error);
+        });
+      const sources = await all<{ id: number; kind: string }>('sources');
+      const metas = await all<{ sourceId: number; periods: { blockCount: number }[] }>('trackingMeta');
+      const blocks = await all<{ sourceId: number }>('trackingBlocks');
+      db.close();
+      return sources
+        .filter((s) => s.kind === 'tracking')
+        .map((s) => {
+          const meta = metas.find((m) => m.sourceId === s.id);
+          return { expected: meta ? meta.periods.reduce((a, p) => a + p.blockCount, 0) : -1, stored: blocks.filter((b) => b.sourceId === s.id).length };
+        });
+    });
+    expect(check.length).toBeGreaterThanOrEqual(1);
+    for (const c of check) expect(c.stored).toBe(c.expected);
   });
 });

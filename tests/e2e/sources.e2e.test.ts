@@ -172,6 +172,11 @@ describe('Sources screen', () => {
     await page.reload();
     await card(page, 'Tracking', 'tracking.csv').waitFor();
     expect(await page.getByRole('article').count()).toBe(2);
+    // The removal was this project's only: the demo project still has its footage.
+    const demoOption = await page.getByLabel('Match project').locator('option', { hasText: /demo/i }).getAttribute('value');
+    await page.getByLabel('Match project').selectOption(demoOption!);
+    await card(page, 'Footage', 'footage.mp4').waitFor();
+    expect(await page.getByRole('article').count()).toBe(3);
   });
 
   it('made no request to anything but the local host, and threw no page errors', () => {
