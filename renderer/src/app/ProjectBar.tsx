@@ -1,12 +1,13 @@
 /** Top bar: the match project switcher, creator and delete (with confirmation). */
 import { useEffect, useState } from 'react';
 import { isTypingTarget } from './keys.ts';
+import type { WhistlemarkDb } from '../db/database.ts';
 import type { ProjectRow } from '../db/rows.ts';
 import { createProject, deleteProject } from '../db/store.ts';
 import { useServices } from './context.ts';
 import { ConfirmDialog, PromptDialog } from './Dialogs.tsx';
 
-export async function selectProject(db: import('../db/database.ts').WhistlemarkDb, id: number | undefined) {
+export async function selectProject(db: WhistlemarkDb, id: number | undefined) {
   await db.settings.put({ key: 'currentProject', value: id });
 }
 

@@ -3,21 +3,12 @@
  * when the whole file parsed without errors store it, in one transaction. Runs inside the
  * import worker; takes its dependencies as arguments so it is testable in Node.
  */
-import type {
-  EventLog,
-  EventMapping,
-  ImportProblem,
-  ImportProgress,
-  RejectedRow,
-  SourceMapping,
-  TrackingData,
-  TrackingMapping,
-} from '../../../shared-types/index.ts';
+import type { ImportOptions, ImportProblem, ImportProgress, ImportResult, RejectedRow, SourceMapping } from '../../../shared-types/index.ts';
 import type { WhistlemarkDb } from '../db/database.ts';
 import type { SourceSummary } from '../db/rows.ts';
-import { storeSource, type SourceFileInfo } from '../db/store.ts';
+import { storeSource, type ImportedPayload, type SourceFileInfo } from '../db/store.ts';
 import { summariseEvents, summariseTracking } from '../summaries.ts';
-import type { Importers } from './importers.ts';
+import type { Importers, TextChunks } from './importers.ts';
 import { openTextStream, ReadFailure, type FetchLike } from './text-stream.ts';
 
 export interface ImportJob {
@@ -47,13 +38,10 @@ export async function runImport(job: ImportJob, deps: ImportDeps): Promise<Impor
   const base = { fileName: job.file.fileName, bytesTotal: job.file.size, onProgress: deps.onProgress, signal };
   try {
     const chunks = await openTextStream(deps.fetch, job.file.url, signal);
-    const result =
-      job.mapping.kind === 'tracking'
-        ? await deps.importers.importTracking(chunks, { ...base, mapping: job.mapping as TrackingMapping })
-        : await deps.importers.importEvents(chunks, { ...base, mapping: job.mapping as EventMapping });
+    const { result, payload, summary } = await parseFile(job, chunks, base, deps.importers);
     if (signal.aborted) return { status: 'cancelled' };
     const errors = result.problems.filter((p) => p.severity === 'error');
-    if (!result.ok || !result.data || errors.length > 0) {
+    if (!result.ok || !payload || !summary || errors.length > 0) {
       const problems = result.problems.length
         ? result.problems
         : [{ severity: 'error' as const, file: job.file.fileName, message: 'The importer gave no data and no reason.', hint: 'Check the mapping and try again.' }];
@@ -61,14 +49,6 @@ export async function runImport(job: ImportJob, deps: ImportDeps): Promise<Impor
     }
     const warnings = result.problems.filter((p) => p.severity === 'warning');
     deps.onProgress({ bytesRead: job.file.size, bytesTotal: job.file.size, rows: result.rows, phase: 'storing' });
-    const summary =
-      job.mapping.kind === 'tracking'
-        ? summariseTracking(result.data as TrackingData, result.rows, result.rejectedRows.length)
-        : summariseEvents(result.data as EventLog, result.rows, result.rejectedRows.length);
-    const payload =
-      job.mapping.kind === 'tracking'
-        ? { kind: 'tracking' as const, data: result.data as TrackingData }
-        : { kind: 'events' as const, data: result.data as EventLog };
     if (signal.aborted) return { status: 'cancelled' };
     const sourceId = await storeSource(deps.db, {
       projectId: job.projectId,
@@ -93,4 +73,21 @@ export async function runImport(job: ImportJob, deps: ImportDeps): Promise<Impor
       rows: 0,
     };
   }
+}
+
+interface Parsed {
+  result: ImportResult<unknown>;
+  payload?: ImportedPayload;
+  summary?: SourceSummary;
+}
+
+/** Run the importer the mapping names; on data, also its payload and summary. */
+async function parseFile(job: ImportJob, chunks: TextChunks, base: Omit<ImportOptions<never>, 'mapping'>, importers: Importers): Promise<Parsed> {
+  const m = job.mapping;
+  if (m.kind === 'tracking') {
+    const r = await importers.importTracking(chunks, { ...base, mapping: m });
+    return r.data ? { result: r, payload: { kind: 'tracking', data: r.data }, summary: summariseTracking(r.data, r.rows, r.rejectedRows.length) } : { result: r };
+  }
+  const r = await importers.importEvents(chunks, { ...base, mapping: m });
+  return r.data ? { result: r, payload: { kind: 'events', data: r.data }, summary: summariseEvents(r.data, r.rows, r.rejectedRows.length) } : { result: r };
 }
