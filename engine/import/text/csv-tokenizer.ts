@@ -71,90 +71,124 @@ export class CsvTokenizer {
   private line = 1;
   private readonly rec = new RecordView();
   private readonly delimCode: number;
+  private buf = '';
+  private pos = 0;
+  private nextQuote = -1;
+  private final = false;
 
+  /**
+   * Pull use (fast, no callback in the hot loop): feed(chunk), then next() until null;
+   * finish() after the last chunk, then next() until null again.
+   * Push use: push(chunk) / end() call onRecord for every record.
+   */
   constructor(
     private readonly delimiter: string,
-    private readonly onRecord: (rec: CsvRecord) => void,
+    private readonly onRecord?: (rec: CsvRecord) => void,
   ) {
     if (delimiter.length !== 1) throw new Error(`delimiter must be one character, got "${delimiter}"`);
     this.delimCode = delimiter.charCodeAt(0);
   }
 
-  push(chunk: string): void {
-    const buf = this.carry.length ? this.carry + chunk : chunk;
+  feed(chunk: string): void {
+    // join() rather than + gives one flat string, which string searches read fastest.
+    this.buf = this.carry.length ? [this.carry, this.buf.slice(this.pos), chunk].join('') : this.pos < this.buf.length ? this.buf.slice(this.pos) + chunk : chunk;
     this.carry = '';
-    const consumed = this.scan(buf, false);
-    if (consumed < buf.length) this.carry = buf.slice(consumed);
+    this.pos = 0;
+    this.nextQuote = this.buf.indexOf('"');
   }
 
-  /** Flushes the last record (a file need not end with a newline). */
-  end(): void {
-    const buf = this.carry;
-    this.carry = '';
-    if (buf.length) this.scan(buf, true);
+  /** No more chunks: the last record may end without a line break. */
+  finish(): void {
+    if (this.carry.length) this.feed('');
+    this.final = true;
   }
 
-  /** Emits every complete record in buf; returns how many characters it used. */
-  private scan(buf: string, final: boolean): number {
-    let pos = 0;
-    let nextQuote = buf.indexOf('"');
+  /** The next complete record, or null when more text is needed (or the text is done). */
+  next(): CsvRecord | null {
+    const buf = this.buf;
     const n = buf.length;
+    let pos = this.pos;
     while (pos < n) {
       let nl = buf.indexOf('\n', pos);
       if (nl === -1) {
-        if (!final) return pos;
+        if (!this.final) break;
         nl = n;
       }
-      if (nextQuote !== -1 && nextQuote < pos) nextQuote = buf.indexOf('"', pos);
-      if (nextQuote === -1 || nextQuote >= nl) {
+      if (this.nextQuote !== -1 && this.nextQuote < pos) this.nextQuote = buf.indexOf('"', pos);
+      if (this.nextQuote === -1 || this.nextQuote >= nl) {
         let lineEnd = nl;
         if (lineEnd > pos && buf.charCodeAt(lineEnd - 1) === 13) lineEnd--;
-        if (lineEnd > pos) this.emitFast(buf, pos, lineEnd);
-        this.line++;
+        const start = pos;
+        const line = this.line++;
         pos = nl + 1;
+        if (lineEnd > start) {
+          this.pos = pos;
+          this.fillFast(buf, start, lineEnd, line);
+          return this.rec;
+        }
       } else {
-        const next = this.emitQuoted(buf, pos, final);
-        if (next === -1) return pos; // record continues in the next chunk
-        pos = next;
+        const next = this.parseQuoted(buf, pos, this.final);
+        if (next === -1) break; // the record continues in the next chunk
+        this.pos = next;
+        return this.rec;
       }
     }
-    return n;
+    // Everything complete has been handed out: keep the rest for the next chunk.
+    this.carry = pos < n ? buf.slice(pos) : '';
+    this.buf = '';
+    this.pos = 0;
+    return null;
   }
 
-  private emitFast(buf: string, start: number, end: number): void {
+  push(chunk: string): void {
+    this.feed(chunk);
+    for (let r = this.next(); r; r = this.next()) this.onRecord!(r);
+  }
+
+  end(): void {
+    this.finish();
+    for (let r = this.next(); r; r = this.next()) this.onRecord!(r);
+  }
+
+  private fillFast(buf: string, start: number, end: number, line: number): void {
     const rec = this.rec;
     rec.values = null;
     rec.unterminated = false;
     rec.src = buf;
     rec.lineStart = start;
     rec.lineEnd = end;
-    rec.line = this.line;
+    rec.line = line;
     let count = 0;
     let p = start;
     const d = this.delimiter;
+    let starts = rec.starts;
+    let ends = rec.ends;
     for (;;) {
-      if (count === rec.starts.length) rec.grow();
+      if (count === starts.length) {
+        rec.grow();
+        starts = rec.starts;
+        ends = rec.ends;
+      }
       const q = buf.indexOf(d, p);
       if (q === -1 || q >= end) {
-        rec.starts[count] = p;
-        rec.ends[count] = end;
+        starts[count] = p;
+        ends[count] = end;
         count++;
         break;
       }
-      rec.starts[count] = p;
-      rec.ends[count] = q;
+      starts[count] = p;
+      ends[count] = q;
       count++;
       p = q + 1;
     }
     rec.count = count;
-    this.onRecord(rec);
   }
 
   /**
    * Exact RFC 4180 path for a record with quotes. Returns the position after the record,
    * or -1 when the record is incomplete and more text is needed.
    */
-  private emitQuoted(buf: string, start: number, final: boolean): number {
+  private parseQuoted(buf: string, start: number, final: boolean): number {
     const values: string[] = [];
     const n = buf.length;
     let i = start;
@@ -228,7 +262,6 @@ export class CsvTokenizer {
     rec.unterminated = unterminated;
     rec.rawText = buf.slice(start, end);
     rec.line = this.line;
-    this.onRecord(rec);
     this.line += 1 + newlines;
     return i;
   }

@@ -18,40 +18,44 @@ const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12,
  * number (missing or invalid alike; tell them apart with isMissingToken when it matters).
  */
 export function parseNumberRange(text: string, start: number, end: number): number {
-  // Trim spaces (files written by spreadsheets often pad).
-  while (start < end && text.charCodeAt(start) === 32) start++;
-  while (end > start && text.charCodeAt(end - 1) === 32) end--;
   if (start >= end) return NaN;
   let i = start;
-  let neg = false;
   let c = text.charCodeAt(i);
-  if (c === 45 /* - */ || c === 43 /* + */) {
-    neg = c === 45;
-    i++;
+  let neg = false;
+  if (c === 45 /* - */) {
+    neg = true;
+    c = text.charCodeAt(++i);
   }
   let mantissa = 0;
   let digits = 0;
+  // Integer part.
+  while (c >= 48 && c <= 57 && i < end) {
+    mantissa = mantissa * 10 + (c - 48);
+    digits++;
+    c = text.charCodeAt(++i);
+  }
   let fracDigits = 0;
-  let seenDot = false;
-  for (; i < end; i++) {
-    c = text.charCodeAt(i);
-    if (c >= 48 && c <= 57) {
+  if (c === 46 /* . */ && i < end) {
+    c = text.charCodeAt(++i);
+    while (c >= 48 && c <= 57 && i < end) {
       mantissa = mantissa * 10 + (c - 48);
-      digits++;
-      if (seenDot) fracDigits++;
-    } else if (c === 46 /* . */ && !seenDot) {
-      seenDot = true;
-    } else break;
+      fracDigits++;
+      c = text.charCodeAt(++i);
+    }
   }
-  if (digits === 0) return NaN;
-  if (i < end || digits > 15 || fracDigits >= POW10.length) {
-    // Exponent or something odd: let the built-in parser decide, strictly.
-    const s = text.slice(start, end);
-    const v = Number(s);
-    return Number.isFinite(v) ? v : NaN;
+  if (i === end && digits + fracDigits > 0 && digits + fracDigits <= 15) {
+    const v = fracDigits === 0 ? mantissa : mantissa / POW10[fracDigits];
+    return neg ? -v : v;
   }
-  const v = fracDigits === 0 ? mantissa : mantissa / POW10[fracDigits];
-  return neg ? -v : v;
+  return parseNumberSlow(text, start, end);
+}
+
+/** Anything unusual (spaces, '+', exponents, long mantissas): strict Number() on the trimmed text. */
+function parseNumberSlow(text: string, start: number, end: number): number {
+  const s = text.slice(start, end).trim();
+  if (!s.length || !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(s)) return NaN;
+  const v = Number(s);
+  return Number.isFinite(v) ? v : NaN;
 }
 
 /** Parses a whole string as a number, NaN when missing or invalid. */

@@ -2,6 +2,8 @@ import type { ImportProgress } from '../../../shared-types/import.ts';
 
 /** UTF-8 byte length of a string (progress is reported in bytes of the file). */
 export function utf8Length(s: string): number {
+  // Most tracking files are ASCII: one native regex scan settles it.
+  if (!/[^\x00-\x7f]/.test(s)) return s.length;
   let n = s.length;
   for (let i = 0; i < s.length; i++) {
     const c = s.charCodeAt(i);

@@ -25,12 +25,13 @@ export class FrameStore {
   readonly entryTime = new Growable(new Float64Array(1024));
   readonly entryPeriod = new Growable(new Int16Array(1024));
   readonly entryLine = new Growable(new Int32Array(1024));
-  // Per sample.
-  readonly sampleEntry = new Growable(new Int32Array(4096));
-  readonly sampleObject = new Growable(new Int16Array(4096));
-  readonly sampleX = new Growable(new Float32Array(4096));
-  readonly sampleY = new Growable(new Float32Array(4096));
-  readonly sampleZ = new Growable(new Float32Array(4096));
+  // Per sample: grown together, so one push writes five monomorphic typed arrays.
+  sampleCount = 0;
+  sampleEntry = new Int32Array(4096);
+  sampleObject = new Int16Array(4096);
+  sampleX = new Float32Array(4096);
+  sampleY = new Float32Array(4096);
+  sampleZ = new Float32Array(4096);
 
   readonly objects: TrackedObject[] = [];
   private readonly objectIndex = new Map<string, number>();
@@ -76,10 +77,32 @@ export class FrameStore {
   }
 
   sample(entry: number, object: number, x: number, y: number, z: number): void {
-    this.sampleEntry.push(entry);
-    this.sampleObject.push(object);
-    this.sampleX.push(x);
-    this.sampleY.push(y);
-    this.sampleZ.push(z);
+    const k = this.sampleCount;
+    if (k === this.sampleX.length) this.growSamples();
+    this.sampleEntry[k] = entry;
+    this.sampleObject[k] = object;
+    this.sampleX[k] = x;
+    this.sampleY[k] = y;
+    this.sampleZ[k] = z;
+    this.sampleCount = k + 1;
+  }
+
+  private growSamples(): void {
+    const n = this.sampleX.length * 2;
+    const e = new Int32Array(n);
+    e.set(this.sampleEntry);
+    this.sampleEntry = e;
+    const o = new Int16Array(n);
+    o.set(this.sampleObject);
+    this.sampleObject = o;
+    const x = new Float32Array(n);
+    x.set(this.sampleX);
+    this.sampleX = x;
+    const y = new Float32Array(n);
+    y.set(this.sampleY);
+    this.sampleY = y;
+    const z = new Float32Array(n);
+    z.set(this.sampleZ);
+    this.sampleZ = z;
   }
 }

@@ -163,7 +163,14 @@ export function normaliseTracking(store: FrameStore, mapping: TrackingMapping, l
 
   const ballIndex = objects.findIndex((o) => o.role === 'ball' || o.id === mapping.ballId);
   if (ballIndex >= 0) objects[ballIndex].role = 'ball';
-  const hasZ = ballIndex >= 0 && store.sampleZ.data.subarray(0, store.sampleZ.length).some((z, k) => z === z && store.sampleObject.data[k] === ballIndex);
+  const count = store.sampleCount;
+  const sE = store.sampleEntry;
+  const sO = store.sampleObject;
+  const sX = store.sampleX;
+  const sY = store.sampleY;
+  const sZ = store.sampleZ;
+  let hasZ = false;
+  for (let k = 0; k < count && !hasZ; k++) hasZ = sO[k] === ballIndex && sZ[k] === sZ[k];
   const periods = new Map<number, TrackingPeriod>();
   for (const p of periodIds) {
     const frameCount = last.get(p)! - first.get(p)! + 1;
@@ -175,44 +182,51 @@ export function normaliseTracking(store: FrameStore, mapping: TrackingMapping, l
   }
   for (let i = 0; i < n; i++) if (!dropped[i]) periods.get(periodOf[i])!.present[frames[i] - first.get(periodOf[i])!] = 1;
 
-  const conv = makeConverter(mapping.coordinates);
+  // The conversion inlined as scale and shift (see coordinates.ts), for speed on millions of samples.
+  const [x0, sx] = affine(makeConverter(mapping.coordinates).x);
+  const [y0, sy] = affine(makeConverter(mapping.coordinates).y);
+  const zScale = unitScale(mapping);
   const halfL = mapping.coordinates.pitch.length / 2 + OFF_PITCH_MARGIN_M;
   const halfW = mapping.coordinates.pitch.width / 2 + OFF_PITCH_MARGIN_M;
-  const sE = store.sampleEntry.data;
-  const sO = store.sampleObject.data;
-  const sX = store.sampleX.data;
-  const sY = store.sampleY.data;
-  const sZ = store.sampleZ.data;
   let finite = 0;
   let off = 0;
   let dupObjects = 0;
-  for (let k = 0; k < store.sampleEntry.length; k++) {
-    const e = sE[k];
+  let k = 0;
+  // Samples are in entry order: walk entries, and each entry's run of samples.
+  for (let e = 0; e < n; e++) {
+    const runStart = k;
+    while (k < count && sE[k] === e) k++;
     if (dropped[e]) continue;
     const tp = periods.get(periodOf[e])!;
+    const px = tp.x;
+    const py = tp.y;
     const f = frames[e] - tp.firstFrame;
-    const idx = f * nObj + sO[k];
-    const rx = sX[k];
-    const ry = sY[k];
-    if (tp.x[idx] === tp.x[idx]) {
-      if (dupObjects++ < 20) log.warn('duplicate-object', { line: store.entryLine.data[e], message: `${objects[sO[k]].id} appears twice in frame ${frames[e]}; the first is kept.`, hint: 'Remove the repeated rows.' });
-      continue;
-    }
-    if (rx !== rx || ry !== ry) continue;
-    const cx = conv.x(rx);
-    const cy = conv.y(ry);
-    tp.x[idx] = cx;
-    tp.y[idx] = cy;
-    if (tp.ballZ && sO[k] === ballIndex) tp.ballZ[f] = sZ[k] * unitScale(mapping);
-    finite++;
-    if (Math.abs(cx) > halfL || Math.abs(cy) > halfW) {
-      off++;
-      log.warn('off-pitch', {
-        line: store.entryLine.data[e],
-        time: clockLabel(tp.period, f / rate),
-        message: `${objects[sO[k]].id} at (${cx.toFixed(1)}, ${cy.toFixed(1)}) m is more than ${OFF_PITCH_MARGIN_M} m off the pitch.`,
-        hint: 'Check units and origin in the mapping if many positions are off.',
-      });
+    const rowBase = f * nObj;
+    for (let j = runStart; j < k; j++) {
+      const o = sO[j];
+      const idx = rowBase + o;
+      const rx = sX[j];
+      const ry = sY[j];
+      if (px[idx] === px[idx]) {
+        if (dupObjects++ < 20) log.warn('duplicate-object', { line: store.entryLine.data[e], message: `${objects[o].id} appears twice in frame ${frames[e]}; the first is kept.`, hint: 'Remove the repeated rows.' });
+        continue;
+      }
+      if (rx !== rx || ry !== ry) continue;
+      const cx = x0 + rx * sx;
+      const cy = y0 + ry * sy;
+      px[idx] = cx;
+      py[idx] = cy;
+      if (o === ballIndex && tp.ballZ) tp.ballZ[f] = sZ[j] * zScale;
+      finite++;
+      if (cx > halfL || cx < -halfL || cy > halfW || cy < -halfW) {
+        off++;
+        log.warn('off-pitch', {
+          line: store.entryLine.data[e],
+          time: clockLabel(tp.period, f / rate),
+          message: `${objects[o].id} at (${cx.toFixed(1)}, ${cy.toFixed(1)}) m is more than ${OFF_PITCH_MARGIN_M} m off the pitch.`,
+          hint: 'Check units and origin in the mapping if many positions are off.',
+        });
+      }
     }
   }
   if (finite > 0 && off > finite / 2) {
@@ -232,6 +246,12 @@ export function normaliseTracking(store: FrameStore, mapping: TrackingMapping, l
     out.push(tp);
   }
   return { rate, pitch: mapping.coordinates.pitch, objects, ballIndex, periods: out };
+}
+
+/** Shift and scale of a linear map v -> a + b v, read off the converter at 0 and 1. */
+function affine(f: (v: number) => number): [number, number] {
+  const a = f(0);
+  return [a, f(1) - a];
 }
 
 /** Height uses the length unit (normalised grids give no height unit; taken as metres). */

@@ -124,7 +124,9 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       return reject(rec, `row has ${rec.count} fields, the header has ${headerWidth}`);
     let period = 0;
     if (c.period !== -1) {
-      period = parsePeriodLabel(rec.field(c.period));
+      // Plain digits are the common case; labels like "2H" go through the slower reader.
+      const pn = rec.num(c.period);
+      period = pn >= 1 && pn <= 5 && Number.isInteger(pn) ? pn : parsePeriodLabel(rec.field(c.period));
       if (!period) return reject(rec, `unknown period "${rec.field(c.period).slice(0, 20)}"`);
     }
     let frame = NaN;
@@ -140,20 +142,16 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         time = NaN;
       }
     }
-    const entry = store.entry(period, frame, time, rec.line, mapping.layout === 'long');
     if (mapping.layout === 'long') {
-      let id = c.object !== -1 ? rec.field(c.object).trim() : '';
-      const teamRaw = c.team !== -1 ? rec.field(c.team).trim() : '';
-      const shirtRaw = c.shirt !== -1 ? rec.field(c.shirt).trim() : '';
-      const teamVal = teamRaw ? parseTeamValue(teamRaw) ?? teamFromName(teamRaw) : undefined;
-      if (!id) id = teamVal === 'ball' ? 'ball' : teamRaw && shirtRaw ? `${teamVal ?? teamRaw}_${shirtRaw}` : '';
-      if (!id) return reject(rec, 'no object id');
-      const shirt = shirtRaw ? Number(shirtRaw) : undefined;
-      const obj = store.object(id, {
-        team: teamVal === 'ball' ? undefined : teamVal,
-        shirt: shirt !== undefined && Number.isInteger(shirt) ? shirt : undefined,
-        role: teamVal === 'ball' || id === mapping.ballId ? 'ball' : undefined,
-      });
+      // Object of this row: looked up by the raw id text, parsed only on first sight.
+      const key = c.object !== -1 ? rec.field(c.object) : rec.field(c.team) + '\u0000' + rec.field(c.shirt);
+      let obj = objectByKey.get(key);
+      if (obj === undefined) {
+        obj = resolveObject(rec);
+        if (obj === -1) return reject(rec, 'no object id');
+        objectByKey.set(key, obj);
+      }
+      const entry = store.entry(period, frame, time, rec.line, true);
       const x = rec.num(c.x);
       const y = rec.num(c.y);
       if (x !== x) badNumber(rec, c.x, mapping.columns.x!);
@@ -161,6 +159,7 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       const z = c.z !== -1 ? rec.num(c.z) : NaN;
       store.sample(entry, obj, x, y, z);
     } else {
+      const entry = store.entry(period, frame, time, rec.line);
       for (const w of c.wide) {
         const x = rec.num(w.x);
         const y = rec.num(w.y);
@@ -169,6 +168,24 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         store.sample(entry, w.obj, x, y, w.z !== -1 ? rec.num(w.z) : NaN);
       }
     }
+  };
+
+  const objectByKey = new Map<string, number>();
+  /** Long layout: the object a row names (id column, or team + shirt), registered with its team and shirt. */
+  const resolveObject = (rec: CsvRecord): number => {
+    const c = cols!;
+    let id = c.object !== -1 ? rec.field(c.object).trim() : '';
+    const teamRaw = c.team !== -1 ? rec.field(c.team).trim() : '';
+    const shirtRaw = c.shirt !== -1 ? rec.field(c.shirt).trim() : '';
+    const teamVal = teamRaw ? parseTeamValue(teamRaw) ?? teamFromName(teamRaw) : undefined;
+    if (!id) id = teamVal === 'ball' ? 'ball' : teamRaw && shirtRaw ? `${teamVal ?? teamRaw}_${shirtRaw}` : '';
+    if (!id) return -1;
+    const shirt = shirtRaw ? Number(shirtRaw) : undefined;
+    return store.object(id, {
+      team: teamVal === 'ball' ? undefined : teamVal,
+      shirt: shirt !== undefined && Number.isInteger(shirt) ? shirt : undefined,
+      role: teamVal === 'ball' || id === mapping.ballId ? 'ball' : undefined,
+    });
   };
 
   /** Team names (not home/away) in a long file: first seen is home, as for event logs. */
@@ -187,14 +204,22 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
     log.warn('rejected-row', { line: rec.line, message: `Row skipped: ${reason}.`, hint: 'Skipped rows are listed with the import; save them to check.' });
   };
 
-  const tokenizer = new CsvTokenizer(mapping.delimiter ?? ',', (rec) => {
-    if (!cols) return onHeader(rec);
-    if (!failed) onRow(rec);
-  });
+  // Pull records (feed / next) so the hot loop has no callback into the tokenizer.
+  const tokenizer = new CsvTokenizer(mapping.delimiter ?? ',');
+  const drain = (): void => {
+    for (let rec = tokenizer.next(); rec; rec = tokenizer.next()) {
+      if (!cols) onHeader(rec);
+      else if (!failed) onRow(rec);
+    }
+  };
   return {
-    push: (chunk) => tokenizer.push(chunk),
+    push: (chunk) => {
+      tokenizer.feed(chunk);
+      drain();
+    },
     end: () => {
-      tokenizer.end();
+      tokenizer.finish();
+      drain();
       if (!cols) {
         log.error('empty', { message: 'The file is empty: no header row.', hint: 'Choose the tracking file itself.' });
       }
