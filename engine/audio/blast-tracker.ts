@@ -14,12 +14,15 @@ interface OpenRun {
   /** Frames where the harmonic could be checked, and where it stood out. */
   harmonicChecked: number;
   harmonicPresent: number;
+  /** Ran past the longest blast: a steady tone (equipment, a horn), to be dropped. */
+  tooLong: boolean;
 }
 
 export class BlastTracker {
   private run: OpenRun | null = null;
   private readonly maxDropoutFrames: number;
   private readonly minBlastFrames: number;
+  private readonly maxBlastFrames: number;
 
   constructor(
     private readonly opts: ResolvedOptions,
@@ -31,6 +34,7 @@ export class BlastTracker {
     this.maxDropoutFrames = Math.max(1, Math.round(opts.maxDropoutS / hopS));
     // Onset and offset are frame centres, so a blast of d seconds spans about d / hop frames.
     this.minBlastFrames = Math.max(2, Math.round(opts.minBlastS / hopS));
+    this.maxBlastFrames = Math.round(opts.maxBlastS / hopS);
   }
 
   /** Feeds frame number `index`; returns a blast when this frame closed one. */
@@ -39,6 +43,10 @@ export class BlastTracker {
     const continues = frame.tonal && run !== null && Math.abs(frame.peakHz - run.lastHz) <= this.opts.maxPitchStepHz;
     if (continues && run) {
       run.lastTonalFrame = index;
+      if (run.tooLong || index - run.firstFrame > this.maxBlastFrames) {
+        run.tooLong = true; // stop collecting: it will be dropped when it ends
+        return null;
+      }
       run.lastHz = frame.peakHz;
       run.hz.push(frame.peakHz);
       run.prominence.push(frame.prominenceDb);
@@ -58,6 +66,7 @@ export class BlastTracker {
         prominence: [frame.prominenceDb],
         harmonicChecked: 0,
         harmonicPresent: 0,
+        tooLong: false,
       };
       this.countHarmonic(this.run, frame);
     }
@@ -84,7 +93,7 @@ export class BlastTracker {
     const run = this.run!;
     this.run = null;
     const frames = run.lastTonalFrame - run.firstFrame + 1;
-    if (frames < this.minBlastFrames) return null;
+    if (frames < this.minBlastFrames || run.tooLong) return null;
     // A whistle's harmonic shows in most frames; noise passes the test in a few per cent.
     const share = run.harmonicChecked ? run.harmonicPresent / run.harmonicChecked : 1;
     if (this.opts.requireHarmonic && run.harmonicChecked > 0 && share < this.opts.minHarmonicShare) return null;

@@ -45,6 +45,8 @@ export interface WhistleDetectorOptions {
   requireHarmonic?: boolean;
   /** Shortest blast, seconds (default 0.15). */
   minBlastS?: number;
+  /** Longest blast, seconds (default 4): a steadier tone is equipment or a horn, not a referee. */
+  maxBlastS?: number;
   /** Largest pitch step between consecutive tonal frames of one blast, Hz (default 250). */
   maxPitchStepHz?: number;
   /** Longest dropout inside one blast, seconds (default 0.06). */
@@ -68,6 +70,7 @@ export function resolveOptions(o: WhistleDetectorOptions): ResolvedOptions {
     minHarmonicShare: o.minHarmonicShare ?? 0.5,
     requireHarmonic: o.requireHarmonic ?? true,
     minBlastS: o.minBlastS ?? 0.15,
+    maxBlastS: o.maxBlastS ?? 4,
     maxPitchStepHz: o.maxPitchStepHz ?? 250,
     maxDropoutS: o.maxDropoutS ?? 0.06,
     groupGapS: o.groupGapS ?? 0.6,

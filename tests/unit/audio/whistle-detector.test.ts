@@ -122,6 +122,15 @@ describe('what is and is not a whistle', () => {
     expect(detect(place(quiet(), pureTone(3000, 1), 1))).toEqual([]);
     expect(detect(place(quiet(), pureTone(3000, 1), 1), SR, 16000, { requireHarmonic: false })).toHaveLength(1);
   });
+  it('a steady tone with its harmonic lasting 6 s (longer than any blast) is not a whistle; a 3 s one is', () => {
+    const steady = (seconds: number) => {
+      const x = new Float32Array(Math.round((seconds + 2) * SR));
+      x.set(whiteNoise(seconds + 2, SR, 12).map((v) => v * 0.01));
+      return place(x, blastSamples({ onset: 0, duration: seconds, hz: 3000 }, SR, 6), 1, 0.3);
+    };
+    expect(detect(steady(6))).toEqual([]);
+    expect(detect(steady(3)).map((c) => Math.round(c.duration))).toEqual([3]);
+  });
   it('a broadband burst (a clap-like click train) is not a whistle', () => {
     const rnd = mulberry32(5);
     const x = quiet();
