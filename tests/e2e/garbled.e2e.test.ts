@@ -2,7 +2,7 @@
  * Bad input through the in-app chooser: a garbled event log is refused with a located
  * problem list and nothing stored; a file that is neither source is not importable.
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from 'node:fs';
+import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync, writeFileSync, writeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'papaparse';
@@ -140,5 +140,33 @@ describe('bad input', () => {
     });
     expect(check.length).toBeGreaterThanOrEqual(1);
     for (const c of check) expect(c.stored).toBe(c.expected);
+  });
+
+  it('cancels a running import on request and stores nothing', async () => {
+    const { page } = app;
+    // A long invented tracking file (about 80 MB) so the import is still reading when
+    // Cancel is pressed; the check is on what is stored, not on any duration.
+    const big = join(dir, 'long-tracking.csv');
+    const fd = openSync(big, 'w');
+    const ids = Array.from({ length: 22 }, (_, i) => (i < 11 ? `home_${i + 1}` : `away_${i - 10}`)).concat('ball');
+    writeSync(fd, ['period', 'frame', ...ids.flatMap((id) => [`${id}_x`, `${id}_y`])].join(',') + '\n');
+    for (let f = 0; f < 160_000; f += 1000) {
+      const lines: string[] = [];
+      for (let k = f; k < f + 1000; k++) lines.push(`1,${k},` + ids.map((_, o) => `${((k + o * 37) % 1000) / 10 - 50},${((k * 3 + o) % 640) / 10 - 32}`).join(','));
+      writeSync(fd, lines.join('\n') + '\n');
+    }
+    closeSync(fd);
+    const before = await page.getByRole('article').count();
+    await openThroughChooser(page, dir, ['long-tracking.csv']);
+    const panel = page.getByRole('region', { name: 'Mapping for long-tracking.csv' });
+    await panel.getByRole('button', { name: 'Import tracking' }).click();
+    await panel.getByRole('progressbar').waitFor();
+    await panel.getByRole('button', { name: 'Cancel import' }).click();
+    await panel.getByRole('status').filter({ hasText: 'Import cancelled. Nothing was stored.' }).waitFor({ timeout: 60_000 });
+    await shot(page, '13-cancelled');
+    await page.reload();
+    await page.getByRole('article').first().waitFor();
+    expect(await page.getByRole('article').count()).toBe(before);
+    rmSync(big);
   });
 });
