@@ -4,10 +4,9 @@
  * footage time. The same decoder and detector the app uses.
  */
 import type { CliCommand } from '../cli.ts';
-import { WhistleDetector, type WhistleCandidate } from '../../engine/audio/index.ts';
-import { decodeAudio, type DecodeEngine } from '../host/audio/decode.ts';
-
-const SAMPLE_RATE = 16000;
+import type { WhistleCandidate } from '../../engine/audio/index.ts';
+import type { DecodeEngine } from '../host/audio/decode.ts';
+import { SCAN_SAMPLE_RATE as SAMPLE_RATE, scanFootageWhistles } from '../host/audio/scan-footage.ts';
 
 const usage = `usage: whistlemark whistles FOOTAGE [--native | --embedded] [--json]
 
@@ -36,25 +35,21 @@ export const command: CliCommand = {
     const ctl = new AbortController();
     const onSigint = () => ctl.abort(Object.assign(new Error('cancelled (Ctrl-C)'), { name: 'AbortError' }));
     process.once('SIGINT', onSigint);
-    const detector = new WhistleDetector({ sampleRate: SAMPLE_RATE });
-    const found: WhistleCandidate[] = [];
     const started = performance.now();
     let lastReport = started;
     try {
-      const result = await decodeAudio(file, {
+      const result = await scanFootageWhistles(file, {
         engine,
-        sampleRate: SAMPLE_RATE,
         signal: ctl.signal,
-        onChunk: (pcm) => found.push(...detector.push(pcm)),
-        onProgress: (s) => {
+        onProgress: (s, n) => {
           const now = performance.now();
           if (process.stderr.isTTY && now - lastReport > 1000) {
             lastReport = now;
-            process.stderr.write(`\rscanned ${clock(s)} of sound, ${found.length} candidates so far`);
+            process.stderr.write(`\rscanned ${clock(s)} of sound, ${n} candidates so far`);
           }
         },
       });
-      found.push(...detector.finish());
+      const found = result.candidates;
       if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
       const wallS = (performance.now() - started) / 1000;
       if (json) {
