@@ -26,7 +26,7 @@ describe('reading opened files', () => {
 
   it('decodes UTF-8 split across chunks (a 2-byte character cut in half)', async () => {
     const bytes = new TextEncoder().encode('team\nFernhöhe Ost\n');
-    const cut = 11; // inside "ö" (0xC3 0xB6): "team\\n" is 5 bytes, "Fernh" 5 more
+    const cut = 11; // inside "ö" (0xC3 0xB6): "team" and its newline are 5 bytes, "Fernh" 5 more
     const body = new ReadableStream<Uint8Array>({
       start(c) {
         c.enqueue(bytes.slice(0, cut));
