@@ -1,1 +1,13 @@
-export {};
+// Alignment engine: kinematics, anchors, clock fits, coarse alignment, refinement, sync.
+export { savgolWeights, savgolSeries, type SavgolOptions } from './kinematics/savgol.ts';
+export { objectMotion, type Motion, type MotionOptions } from './kinematics/motion.ts';
+export { restartKindAt, outOfField, LAW1 } from './anchors/geometry.ts';
+export { detectRestarts, type RestartAnchor, type RestartOptions } from './anchors/restarts.ts';
+export { eventAnchors } from './anchors/events.ts';
+export { alignRestarts, alignAt, type AlignOptions, type CoarseMatch, type AnchorPair } from './align/coarse.ts';
+export { huberFit, theilSen, median, mad, type LineFit } from './fit/robust.ts';
+export { fitClock, fitClocks, findBreaks, mapTime, segmentAt, type ClockPair, type ClockFitOptions } from './fit/clock.ts';
+export { ballTouches, type BallTouch } from './refine/kicks.ts';
+export { chooseMonotone, type EventOptions, type Option } from './refine/choose.ts';
+export { buildScenes, refineEvents, type PeriodScene } from './refine/refine.ts';
+export { syncMatch, type SyncOptions, type SyncResult } from './sync.ts';

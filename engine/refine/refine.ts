@@ -141,10 +141,17 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       const tp = predicted[k];
       const kinds = candidateKindsFor(e.kind);
       const w = kindWindow(e.kind);
-      const cands = kinds.length && Number.isFinite(tp) ? inWindow(scene.candidates, tp - w.before, tp + w.after).filter((c) => kinds.includes(c.kind)) : [];
-      const scores = cands.map((c) => scoreCandidate(e, c, tp, playerAt(e, scene, tracking, c)));
+      let cands = kinds.length && Number.isFinite(tp) ? inWindow(scene.candidates, tp - w.before, tp + w.after).filter((c) => kinds.includes(c.kind)) : [];
+      let scores = cands.map((c) => scoreCandidate(e, c, tp, playerAt(e, scene, tracking, c)));
+      if (e.kind === 'period_start') {
+        // Law 8: a period starts with its kick-off, wherever the log's clock put the row
+        // (taggers often start their clock well before the ball is played).
+        const first = scene.candidates.find((c) => c.kind === 'restart' && c.restartKind === 'kick_off');
+        cands = first ? [first] : [];
+        scores = cands.map(() => 0);
+      }
       perEvent.push({ cands, scores });
-      dp.push({ options: cands.map((c, j) => ({ t: c.t, score: scores[j] })), nullScore: NULL_SCORE, mayTie: e.kind === 'period_start' || e.kind === 'goal' });
+      dp.push({ options: cands.map((c, j) => ({ t: c.t, score: scores[j] })), nullScore: NULL_SCORE, mayTie: e.kind === 'period_start' || e.kind === 'kick_off' || e.kind === 'goal' });
     });
     const picks = chooseMonotone(dp);
     idxs.forEach((i, k) => {
@@ -152,10 +159,10 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       const tp = predicted[k];
       const { cands, scores } = perEvent[k];
       if (!Number.isFinite(tp)) return void (out[i] = unplaced(i, tp, `no clock fit for period ${period}`));
-      if (tp < -5 || tp > scene.duration + 5) return void (out[i] = unplaced(i, tp, `the logged time maps to ${tp.toFixed(1)} s, outside the tracking of period ${period}; kept the logged time`));
       const why = UNPLACEABLE_WHY[e.kind];
       if (why) return void (out[i] = unplaced(i, tp, `${why}; kept the logged time`));
       const pick = picks[k];
+      if (pick < 0 && (tp < -5 || tp > scene.duration + 5)) return void (out[i] = unplaced(i, tp, `the logged time maps to ${tp.toFixed(1)} s, outside the tracking of period ${period}; kept the logged time`));
       if (pick < 0) {
         const w = kindWindow(e.kind);
         const who = e.team ? `${e.team}${e.player ? ' ' + e.player : ''}` : 'anyone';
@@ -183,12 +190,13 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       const p = playerAt(e, scene, tracking, c);
       let reason: string;
       if (c.kind === 'goal_line') reason = `ball crossed the goal line ${when}`;
+      else if (c.kind === 'restart' && e.kind === ('period_start' as string)) reason = `the period starts with its kick-off, ${when}`;
       else if (c.kind === 'restart') {
         reason = `ball, still at (${c.x.toFixed(1)}, ${c.y.toFixed(1)}), played ${when}`;
         if (p?.tagged) reason += ` by ${p.label}`;
         if (moved && e.x !== undefined && e.y !== undefined) reason += `; ${Math.hypot(c.x - e.x, c.y - e.y).toFixed(1)} m from the logged place`;
         if (c.restartKind !== (e.kind === 'period_start' ? 'kick_off' : e.kind)) reason += ` (tracking sees a ${c.restartKind!.replace('_', ' ')})`;
-      } else reason = p?.tagged ? `ball left ${p.label} ${when}` : `ball struck ${when}${p ? `, ${p.dist.toFixed(1)} m from the nearest ${e.team} player` : ''}`;
+      } else reason = p?.tagged ? `ball left ${p.label} ${when}` : `ball struck ${when}${p ? `, ${p.dist.toFixed(1)} m from the nearest ${e.team} player (${e.player ? `no ${e.team} ${e.player} in tracking` : 'no player in the log'})` : ''}`;
       out[i] = { eventId: e.id, trackingPeriod: period, trackingTime: c.t, trackingFrame: frameOf(c.t), predictedTime: tp, x, y,
         change, confidence, reason, placed: true };
     });
