@@ -19,7 +19,7 @@ export function savgolWeights(from: number, to: number, order: number, deriv = 0
   const hit = cache.get(key);
   if (hit) return hit;
   const n = to - from + 1;
-  if (!(from <= 0 && to >= 0)) throw new Error(`savgolWeights: window ${from}..${to} must contain offset 0`);
+  if (!(from <= 0 && to >= 0)) throw new Error(`savgolWeights: sample span ${from}..${to} must contain offset 0`);
   if (order >= n) throw new Error(`savgolWeights: order ${order} needs more than ${n} samples`);
   if (deriv > order) throw new Error(`savgolWeights: derivative ${deriv} is above the order ${order}`);
   const p = order + 1;
