@@ -5,11 +5,12 @@
  *    with its harmonic every 60 s, stereo 48 kHz AAC at a low bitrate, in a temp folder
  *    deleted after): decode + detect × real time with native ffmpeg and with the embedded
  *    ffmpeg.wasm core (file mounted, and copied whole for comparison), in the same run.
- * Goal: the whole embedded scan of 90 minutes in <= 60 s.
+ * Goal: the whole embedded scan of 90 minutes in <= 60 s. CPU seconds are printed beside
+ * wall time: on a shared machine they say what the scan costs an idle core.
  * WM_BENCH_MINUTES=10 npx tsx bench/whistle.bench.ts for a shorter run.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import FFT from 'fft.js';
@@ -68,10 +69,25 @@ function makeRecording(dir: string): string {
   return file;
 }
 
+/** CPU seconds of this process and its waited-for children (Linux /proc; 0 elsewhere). */
+function cpuSeconds(): number {
+  const own = process.cpuUsage();
+  let children = 0;
+  try {
+    const fields = readFileSync('/proc/self/stat', 'utf8').split(') ')[1].split(' ');
+    // After "pid (comm) ": field 3 is state, so cutime/cstime (fields 16, 17) sit at 13, 14.
+    children = (Number(fields[13]) + Number(fields[14])) / 100;
+  } catch {
+    children = 0;
+  }
+  return (own.user + own.system) / 1e6 + children;
+}
+
 async function scan(label: string, run: (onChunk: (pcm: Float32Array) => void) => Promise<{ seconds: number }>) {
   const detector = new WhistleDetector({ sampleRate: 16000 });
   const found: WhistleCandidate[] = [];
   let detectMs = 0;
+  const cpu0 = cpuSeconds();
   const t0 = performance.now();
   const r = await run((pcm) => {
     const d0 = performance.now();
@@ -80,11 +96,13 @@ async function scan(label: string, run: (onChunk: (pcm: Float32Array) => void) =
   });
   found.push(...detector.finish());
   const wall = (performance.now() - t0) / 1000;
+  const cpu = cpuSeconds() - cpu0;
   const expected = minutes;
   const hits = found.filter((c) => Math.abs(((c.onset - 30) % 60 + 60) % 60) < 0.05 || Math.abs(((c.onset - 30) % 60) - 60) < 0.05).length;
   console.log(
     `  ${label.padEnd(28)} ${wall.toFixed(1).padStart(6)} s wall, ${(r.seconds / wall).toFixed(0).padStart(4)}× real time ` +
-      `(detector ${(detectMs / 1000).toFixed(1)} s, ${(r.seconds / (detectMs / 1000)).toFixed(0)}×); ${hits}/${expected} blasts found, ${found.length - hits} other candidates`,
+      `(detector ${(detectMs / 1000).toFixed(1)} s, ${(r.seconds / (detectMs / 1000)).toFixed(0)}×); CPU ${cpu.toFixed(1)} s; ` +
+      `${hits}/${expected} blasts found, ${found.length - hits} other candidates`,
   );
   return wall;
 }
