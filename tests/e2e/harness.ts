@@ -3,6 +3,9 @@
  * the browser host from electron/serve.ts, in Debian Chromium through playwright-core.
  * Each app gets its own temporary HOME and browser profile; relaunching on the same
  * profile keeps IndexedDB, which is how "still there after a restart" is tested.
+ *
+ * Run: npx vite build --config build/vite.config.ts && npx vitest run --config build/vitest.e2e.config.ts
+ * Screenshots land in test-results/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';

@@ -10,7 +10,7 @@ export function useLive<T>(query: () => Promise<T>, deps: unknown[]): T | undefi
       error: (e) => console.error('database query failed', e),
     });
     return () => sub.unsubscribe();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // The caller names what the query depends on, as with useEffect.
   }, deps);
   return value;
 }
