@@ -11,7 +11,7 @@ export const COLUMN_NAMES = {
   object: ['object', 'objectid', 'id', 'trackid', 'obj', 'entity', 'entityid', 'target', 'playerid'],
   team: ['team', 'side', 'teamid', 'teamname', 'club'],
   shirt: ['shirt', 'jersey', 'shirtnumber', 'jerseynumber', 'number', 'no', 'num', 'shirtno'],
-  player: ['player', 'playerid', 'playername', 'shirt', 'jersey', 'who', 'actor'],
+  player: ['player', 'playerid', 'playername', 'shirt', 'shirtno', 'shirtnumber', 'jersey', 'number', 'who', 'actor'],
   x: ['x', 'posx', 'xm', 'px', 'xpos', 'locx', 'startx', 'xcoord', 'xcm'],
   y: ['y', 'posy', 'ym', 'py', 'ypos', 'locy', 'starty', 'ycoord', 'ycm'],
   z: ['z', 'posz', 'zm', 'pz', 'height', 'zpos', 'ballz'],

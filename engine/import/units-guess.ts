@@ -23,7 +23,9 @@ export function guessGrid(xs: number[], ys: number[], hint = ''): GridGuess {
   const minY = Math.min(...fy);
   const maxY = Math.max(...fy);
   const range = `x ${round(minX)}..${round(maxX)}, y ${round(minY)}..${round(maxY)}`;
-  const negative = minX < -0.01 * Math.abs(maxX) || minY < -0.01 * Math.abs(maxY);
+  // Centre origin shows values well either side of 0; a corner grid only small negatives
+  // (positions a little beyond the lines: the ball out of play, a throw-in taker).
+  const negative = minX < -0.25 * Math.abs(maxX) || minY < -0.25 * Math.abs(maxY);
   const extent = Math.max(Math.abs(minX), Math.abs(maxX), Math.abs(minY), Math.abs(maxY));
   const yDownHint = /top|down|image|screen/i.test(hint);
   if (negative) {

@@ -241,7 +241,7 @@ export function normaliseTracking(store: FrameStore, mapping: TrackingMapping, l
   for (const p of periodIds) {
     const tp = periods.get(p)!;
     const missing = tp.frameCount - tp.present.reduce((a, b) => a + b, 0);
-    if (missing > 0) log.warn('missing-frames', { time: clockLabel(p, 0), message: `Period ${p}: ${missing} of ${tp.frameCount} frames are missing; they are kept as gaps.`, hint: 'Nothing to do unless the gaps are long.' });
+    if (missing > 0) log.warn('missing-frames', { message: `Period ${p}: ${missing} of ${tp.frameCount} frames are missing; they are kept as gaps.`, hint: 'Nothing to do unless the gaps are long.' });
     tp.homeAttacks = homeAttacks(tp, objects, rate, log);
     out.push(tp);
   }
