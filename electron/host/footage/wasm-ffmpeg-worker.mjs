@@ -43,7 +43,7 @@ class NodeFileReaderSync {
   }
 }
 
-async function run({ inputPath, args, outputName }) {
+async function run({ inputPath, args, outputName, wasmModule }) {
   const corePath = require.resolve('@ffmpeg/core');
   const wasmPath = corePath.replace(/ffmpeg-core\.js$/, 'ffmpeg-core.wasm');
   globalThis.self = globalThis;
@@ -52,7 +52,17 @@ async function run({ inputPath, args, outputName }) {
   globalThis.FileReaderSync = NodeFileReaderSync;
 
   const { default: createCore } = await import(pathToFileURL(corePath).href);
-  const core = await createCore({ wasmBinary: readFileSync(wasmPath) });
+  // A module compiled once by the parent saves compiling 32 MB of wasm on every probe.
+  const core = await createCore(
+    wasmModule
+      ? {
+          instantiateWasm(imports, receive) {
+            WebAssembly.instantiate(wasmModule, imports).then((instance) => receive(instance, wasmModule));
+            return {};
+          },
+        }
+      : { wasmBinary: readFileSync(wasmPath) },
+  );
   const log = [];
   core.setLogger(({ type, message }) => log.push(`${type === 'stdout' ? 'O' : 'E'} ${message}`));
 

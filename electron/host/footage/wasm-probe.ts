@@ -6,6 +6,8 @@
  * Chosen over a hand-written Matroska/TS demuxer: ffmpeg is the reference the tests
  * compare against, and the core is already a dependency for export.
  */
+import { readFile } from 'node:fs/promises';
+import { createRequire } from 'node:module';
 import { Worker } from 'node:worker_threads';
 import type { FootageProbe } from '../../../shared-types/domain.ts';
 import { frameTable } from './frame-table.ts';
@@ -18,11 +20,23 @@ interface WorkerResult {
 }
 
 const workerUrl = new URL('./wasm-ffmpeg-worker.mjs', import.meta.url);
+const require = createRequire(import.meta.url);
+
+/** The ffmpeg core compiled once per process; workers instantiate it (no recompiling). */
+let compiled: Promise<WebAssembly.Module> | undefined;
+function coreModule(): Promise<WebAssembly.Module> {
+  compiled ??= readFile(require.resolve('@ffmpeg/core').replace(/ffmpeg-core\.js$/, 'ffmpeg-core.wasm')).then((bytes) =>
+    WebAssembly.compile(bytes),
+  );
+  compiled.catch(() => (compiled = undefined));
+  return compiled;
+}
 
 /** Runs ffmpeg (wasm) on one file; `{input}` in args stands for the mounted file. */
-export function runWasmFfmpeg(inputPath: string, args: string[], outputName?: string): Promise<WorkerResult> {
+export async function runWasmFfmpeg(inputPath: string, args: string[], outputName?: string): Promise<WorkerResult> {
+  const wasmModule = await coreModule();
   return new Promise((resolve, reject) => {
-    const worker = new Worker(workerUrl, { workerData: { inputPath, args, outputName } });
+    const worker = new Worker(workerUrl, { workerData: { inputPath, args, outputName, wasmModule } });
     let settled = false;
     worker.once('message', (m: { ok: boolean; result?: WorkerResult; error?: string }) => {
       settled = true;
