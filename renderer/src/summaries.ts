@@ -19,6 +19,7 @@ export function summariseTracking(data: TrackingData, rows?: number, rejectedRow
       end: p.frameCount / data.rate,
       frames: p.frameCount,
       missingFrames: p.frameCount - present,
+      homeAttacks: p.homeAttacks,
     };
   });
   const frames = data.periods.reduce((s, p) => s + p.frameCount, 0);

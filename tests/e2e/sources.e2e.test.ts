@@ -4,7 +4,7 @@
  * of the same files, and everything survives a reload and a browser restart.
  */
 import { execFileSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'papaparse';
 import type { Locator, Page } from 'playwright-core';
@@ -121,6 +121,14 @@ describe('Sources screen', () => {
     const v = probe.streams[0];
     expect(await stat(ft, 'Video').innerText()).toBe(`${v.codec_name} ${v.width}×${v.height}`);
     expect(await num(stat(ft, 'Frames'))).toBe(Number(v.nb_frames));
+  });
+
+  // Which way home attacks, per period, as the demo's generator recorded it (fixtures/demo/truth.json).
+  it.runIf(existsSync(join(DEMO_DIR, 'truth.json')))('shows the attack direction the demo truth records', async () => {
+    const truth = JSON.parse(readFileSync(join(DEMO_DIR, 'truth.json'), 'utf8')) as { periods: { period: number; homeAttacks: string }[] };
+    const rows = card(app.page, 'Tracking', 'tracking.csv').locator('table.periods tbody tr');
+    const shown = await rows.evaluateAll((trs) => trs.map((tr) => [Number(tr.children[0].textContent), tr.children[6].textContent]));
+    expect(shown).toEqual(truth.periods.map((p) => [p.period, p.homeAttacks === 'positive_x' ? 'towards +x' : 'towards −x']));
   });
 
   it('keeps both projects and all sources after a reload and a browser restart', async () => {

@@ -36,6 +36,8 @@ export interface PeriodSummary {
   frames?: number;
   missingFrames?: number;
   events?: number;
+  /** Tracking: which way the home team attacks in this period. */
+  homeAttacks?: 'positive_x' | 'negative_x';
 }
 
 /** What the Sources screen shows about one source, computed once at import. */

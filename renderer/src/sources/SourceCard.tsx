@@ -67,6 +67,7 @@ export function SourceCard({ source }: { source: SourceRow }) {
               <th className="num">Length</th>
               {source.kind === 'tracking' && <th className="num">Frames</th>}
               {source.kind === 'tracking' && <th className="num">Missing frames</th>}
+              {source.kind === 'tracking' && <th>Home attacks</th>}
               {source.kind === 'events' && <th className="num">Events</th>}
             </tr>
           </thead>
@@ -79,6 +80,7 @@ export function SourceCard({ source }: { source: SourceRow }) {
                 <td className="num">{formatDuration(p.end - p.start)}</td>
                 {source.kind === 'tracking' && <td className="num">{(p.frames ?? 0).toLocaleString('en')}</td>}
                 {source.kind === 'tracking' && <td className="num">{(p.missingFrames ?? 0).toLocaleString('en')}</td>}
+                {source.kind === 'tracking' && <td>{p.homeAttacks === undefined ? '–' : p.homeAttacks === 'positive_x' ? 'towards +x' : 'towards −x'}</td>}
                 {source.kind === 'events' && <td className="num">{p.events ?? 0}</td>}
               </tr>
             ))}

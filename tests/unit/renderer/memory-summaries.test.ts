@@ -59,7 +59,7 @@ describe('summaries', () => {
       periods: [{ period: 1, firstFrame: 0, frameCount: 4, present, x: new Float32Array(12), y: new Float32Array(12), homeAttacks: 'positive_x' }],
     });
     expect(s).toMatchObject({ rate: 25, frames: 4, objects: 3, hasBall: true, players: { home: 1, away: 1, unknown: 0 } });
-    expect(s.periods[0]).toMatchObject({ missingFrames: 1, end: 4 / 25 });
+    expect(s.periods[0]).toMatchObject({ missingFrames: 1, end: 4 / 25, homeAttacks: 'positive_x' });
   });
 
   it('formats durations and sizes', () => {
