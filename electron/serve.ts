@@ -49,6 +49,8 @@ export const TOKEN_COOKIE = 'wm_token';
 export const TOKEN_HEADER = 'x-whistlemark-token';
 export const SAVE_HEADER = 'x-whistlemark-save';
 const MAX_JSON_BODY = 1 << 20;
+/** saveFile bodies are held in memory before the atomic write; cap them. */
+const MAX_SAVE_BODY = 1 << 30;
 
 class HttpError extends Error {
   constructor(
@@ -197,7 +199,12 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
         throw new HttpError(400, `saveFile: argument 1 ${m.error.issues.map((i) => `.${i.path.join('.')}: ${i.message}`).join('; ')}`);
       }
       const chunks: Buffer[] = [];
-      for await (const chunk of req as AsyncIterable<Buffer>) chunks.push(chunk);
+      let size = 0;
+      for await (const chunk of req as AsyncIterable<Buffer>) {
+        size += chunk.length;
+        if (size > MAX_SAVE_BODY) throw new HttpError(413, 'saveFile: more than 1 GB in one save; export large clips through the export writer instead');
+        chunks.push(chunk);
+      }
       const bytes = new Uint8Array(Buffer.concat(chunks));
       value = await service.api.saveFile(validateArgs('saveFile', [{ ...m.data, bytes }])[0]);
     } else {

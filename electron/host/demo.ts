@@ -34,7 +34,8 @@ export async function openDemoMatch(registry: OpenedFiles, demoDir: string = DEF
   const truthPath = join(dir, 'truth.json');
   const hasTruth = await isFile(truthPath);
   let title = 'Demo match (invented)';
-  if (hasTruth) {
+  // Only a modest truth file is read for its title; a big one keeps the default.
+  if (hasTruth && (await stat(truthPath)).size < 8 * 1024 * 1024) {
     // The generator may write a title; anything unreadable just keeps the default.
     try {
       const truth = JSON.parse(await readFile(truthPath, 'utf8')) as { title?: unknown; match?: { title?: unknown } };
