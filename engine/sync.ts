@@ -16,7 +16,7 @@ export interface SyncOptions {
   restarts?: RestartOptions;
   align?: AlignOptions;
   fit?: ClockFitOptions;
-  /** Refit the clock on refined events and refine again this many times (default 1). */
+  /** Refit the clock on refined events and refine again this many times (default 2). */
   refits?: number;
 }
 
@@ -46,11 +46,13 @@ export function syncMatch(tracking: TrackingData, events: EventLog, opts: SyncOp
       anchorId: p.source.id, refAnchorId: p.tracking.id, kind: p.source.kind, t: p.source.t, tRef: p.tracking.t,
       weight: Math.min(p.source.confidence, p.tracking.confidence),
     })));
-  let fit = withFallbacks(fitClocks(firstPairs, 'events', opts.fit), periods);
+  // First fit: offset only (nominal rate). A few dozen jittery restarts cannot pin the
+  // rate to better than thousands of ppm, and a wrong rate would steer every event.
+  let fit = withFallbacks(fitClocks(firstPairs, 'events', { ...opts.fit, fixedRate: 1 }), periods);
   const scenes = buildScenes(tracking, trackingAnchors);
   let corrections = refineEvents(tracking, events, fit, scenes);
 
-  for (let pass = 0; pass < (opts.refits ?? 1); pass++) {
+  for (let pass = 0; pass < (opts.refits ?? 2); pass++) {
     const pairs = new Map<PeriodId, ClockPair[]>();
     corrections.forEach((c, i) => {
       const e = events.events[i];

@@ -27,6 +27,11 @@ export interface ClockFitOptions {
   minBreak?: Seconds;
   /** Fewest points on each side of a break. Default 4. */
   minSegmentPoints?: number;
+  /**
+   * Hold the rate at this value and fit the offset only: for a first fit on a handful of
+   * restarts, where the rate would be far less certain than real clocks drift (±300 ppm).
+   */
+  fixedRate?: number;
 }
 
 const ROBUST = 1.4826;
@@ -48,6 +53,7 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
     const p = sorted[0];
     return segment(period, ts[0], ts[0], p.tRef - p.t, 1, NaN, NaN, [point(p, 0, true)], 0, NaN);
   }
+  if (opts.fixedRate !== undefined) return fitOffsetOnly(sorted, period, opts.fixedRate, minScale, madLimit);
   // First pass: robust fit on everything, then flag MAD outliers and refit without them.
   const first = huberFit(ts, refs, { minScale });
   const res = first.residuals;
@@ -69,6 +75,26 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
   const w = Float64Array.from(fit.weights, (v, i) => v * (mask[i] > 0 ? sorted[i].weight ?? 1 : 0));
   return segment(period, ts[0], ts[n - 1], fit.intercept, fit.slope, fit.interceptSe, fit.slopeSe, points,
     Math.sqrt(ss / Math.max(1, used)), leaveOneOutMax(ts, refs, w));
+}
+
+/** Offset at a fixed rate: median of tRef - rate t, MAD outliers out, mean of the rest. */
+function fitOffsetOnly(sorted: ClockPair[], period: PeriodId, rate: number, minScale: number, madLimit: number): ClockSegment {
+  const offs = sorted.map((p) => p.tRef - rate * p.t);
+  const m = median(offs);
+  const s = Math.max(minScale, ROBUST * mad(offs));
+  const used = offs.map((o) => Math.abs(o - m) <= madLimit * s);
+  const kept = offs.filter((_, i) => used[i]);
+  const offset = kept.reduce((a, b) => a + b, 0) / kept.length;
+  const sd = Math.sqrt(kept.reduce((a, o) => a + (o - offset) ** 2, 0) / Math.max(1, kept.length - 1));
+  const points = sorted.map((p, i) => {
+    const fp = point(p, offs[i] - offset, used[i]);
+    if (!used[i]) fp.rejectedBecause = `MAD outlier: residual ${(offs[i] - offset).toFixed(2)} s is beyond ${madLimit} robust SD (${s.toFixed(3)} s)`;
+    return fp;
+  });
+  const rms = Math.sqrt(kept.reduce((a, o) => a + (o - offset) ** 2, 0) / kept.length);
+  // Leaving one point out moves a mean by at most max |o_i - mean| / (n - 1).
+  const loo = kept.length > 1 ? Math.max(...kept.map((o) => Math.abs(o - offset))) / (kept.length - 1) : NaN;
+  return segment(period, sorted[0].t, sorted[sorted.length - 1].t, offset, rate, sd / Math.sqrt(kept.length), NaN, points, rms, loo);
 }
 
 function point(p: ClockPair, residual: number, used: boolean): FitPoint {
@@ -134,25 +160,28 @@ export function findBreaks(pairs: ClockPair[], opts: ClockFitOptions = {}): numb
     // Offsets of each point under that rate; a jump is a step in these.
     const off = ts.map((t, i) => refs[i] - rate * t);
     const n = off.length;
-    let best = -1, bestStat = 0, bestStep = 0;
-    // Coarse scan with a stride on long lists, then every split near the coarse best.
-    const stride = Math.max(1, Math.floor(n / 150));
-    const tryAt = (k: number) => {
-      const left = median(off.slice(0, k));
-      const right = median(off.slice(k));
-      const spread = Math.max(opts.minScale ?? 0.02, ROBUST * mad([...off.slice(0, k).map((v) => v - left), ...off.slice(k).map((v) => v - right)]));
-      const step = right - left;
-      const stat = Math.abs(step) / spread;
-      if (stat > bestStat) {
-        bestStat = stat;
-        best = k;
-        bestStep = step;
-      }
-    };
-    for (let k = minSide; k <= n - minSide; k += stride) tryAt(k);
-    if (stride > 1 && best > 0) {
-      const c = best;
-      for (let k = Math.max(minSide, c - stride); k <= Math.min(n - minSide, c + stride); k++) tryAt(k);
+    // Scan every split with prefix sums of clipped offsets (a t-like statistic, O(n)),
+    // then judge the best split with medians (robust to the odd mistimed anchor).
+    const mAll = median(off);
+    const sAll = Math.max(opts.minScale ?? 0.02, ROBUST * mad(off));
+    const clip = off.map((v) => Math.min(mAll + 3 * sAll, Math.max(mAll - 3 * sAll, v)));
+    const S = new Float64Array(n + 1), Q = new Float64Array(n + 1);
+    for (let i = 0; i < n; i++) { S[i + 1] = S[i] + clip[i]; Q[i + 1] = Q[i] + clip[i] * clip[i]; }
+    let best = -1, bestT = 0;
+    for (let k = minSide; k <= n - minSide; k++) {
+      const ml = S[k] / k, mr = (S[n] - S[k]) / (n - k);
+      const ss = Q[k] - k * ml * ml + (Q[n] - Q[k]) - (n - k) * mr * mr;
+      const sd = Math.sqrt(Math.max(ss, 1e-12) / Math.max(1, n - 2));
+      const tStat = Math.abs(mr - ml) / (sd * Math.sqrt(1 / k + 1 / (n - k)));
+      if (tStat > bestT) { bestT = tStat; best = k; }
+    }
+    let bestStat = 0, bestStep = 0;
+    if (best > 0) {
+      const left = median(off.slice(0, best));
+      const right = median(off.slice(best));
+      const spread = Math.max(opts.minScale ?? 0.02, ROBUST * mad([...off.slice(0, best).map((v) => v - left), ...off.slice(best).map((v) => v - right)]));
+      bestStep = right - left;
+      bestStat = Math.abs(bestStep) / spread;
     }
     if (best > 0 && Math.abs(bestStep) >= minBreak && bestStat > 6) {
       out.push(lo + best);
@@ -173,7 +202,7 @@ export function fitClocks(pairsByPeriod: Map<PeriodId, ClockPair[]>, source: Clo
   for (const [period, pairs] of [...pairsByPeriod].sort((a, b) => a[0] - b[0])) {
     if (pairs.length === 0) continue;
     const sorted = [...pairs].sort((a, b) => a.t - b.t);
-    const cuts = [0, ...findBreaks(sorted, opts), sorted.length];
+    const cuts = [0, ...(opts.fixedRate === undefined ? findBreaks(sorted, opts) : []), sorted.length];
     const segs: ClockSegment[] = [];
     for (let i = 0; i + 1 < cuts.length; i++) segs.push(fitClock(sorted.slice(cuts[i], cuts[i + 1]), period, opts));
     // Segment edges meet halfway between the last point of one and the first of the next.

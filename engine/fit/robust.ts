@@ -107,7 +107,7 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
     const moved = Math.abs(fit.intercept - a) + Math.abs(fit.slope - b) * (Math.abs(fit.mx) + 1);
     a = fit.intercept;
     b = fit.slope;
-    if (moved < 1e-12) break;
+    if (moved < 1e-9) break;
   }
   for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
   const { mx, sw, sxx } = weightedLine(xs, ys, w);

@@ -27,7 +27,7 @@ interface State {
   prev: State | null;
 }
 
-const FRONT_CAP = 48;
+const FRONT_CAP = 16;
 
 /** `chooseMonotone(events) -> picks` (option index per event, -1 when left unplaced). */
 export function chooseMonotone(events: EventOptions[]): number[] {
@@ -38,22 +38,13 @@ export function chooseMonotone(events: EventOptions[]): number[] {
   for (const ev of events) {
     const next: State[] = [];
     // Prefix maxima over the front (time ascending): best state with t < x.
-    const times = front.map((s) => s.t);
     const prefBest: State[] = [];
     for (let i = 0; i < front.length; i++) prefBest.push(i === 0 || front[i].score > prefBest[i - 1].score ? front[i] : prefBest[i - 1]);
-    const bestBefore = (t: number, tie: boolean): State | undefined => {
-      // Largest i with times[i] < t (or <= t when ties are allowed).
-      let lo = 0, hi = times.length - 1, ans = -1;
-      while (lo <= hi) {
-        const mid = (lo + hi) >> 1;
-        if (times[mid] < t || (tie && times[mid] <= t)) { ans = mid; lo = mid + 1; } else hi = mid - 1;
-      }
-      return ans >= 0 ? prefBest[ans] : undefined;
-    };
-    ev.options.forEach((o, k) => {
-      const p = bestBefore(o.t, !!ev.mayTie);
+    for (let k = 0; k < ev.options.length; k++) {
+      const o = ev.options[k];
+      const p = bestBefore(front, prefBest, o.t, !!ev.mayTie);
       if (p) next.push({ t: o.t, score: p.score + o.score, pick: k, prev: p });
-    });
+    }
     for (const s of front) next.push({ t: s.t, score: s.score + ev.nullScore, pick: -1, prev: s });
     next.sort((a, b) => a.t - b.t || b.score - a.score);
     const pruned: State[] = [];
@@ -69,4 +60,14 @@ export function chooseMonotone(events: EventOptions[]): number[] {
     end = end.prev!;
   }
   return picks;
+}
+
+/** The best state whose time is before t (or equal, when ties are allowed). */
+function bestBefore(front: State[], prefBest: State[], t: number, tie: boolean): State | undefined {
+  let lo = 0, hi = front.length - 1, ans = -1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (front[mid].t < t || (tie && front[mid].t <= t)) { ans = mid; lo = mid + 1; } else hi = mid - 1;
+  }
+  return ans >= 0 ? prefBest[ans] : undefined;
 }
