@@ -101,11 +101,12 @@ function detectJson(fileName: string, head: string): Detection {
   );
   splitter.push(head);
   const isArray = head[0] === '[';
-  const baseClue = isArray ? 'JSON array of objects' : 'JSON objects, one per line';
+  const wrapped = !isArray && /^\{[^\n]*\n/.test(head) && !/^\{[^\n]*\}\s*\n/.test(head);
+  const baseClue = isArray ? 'JSON array of objects' : wrapped ? 'JSON object holding an array of records' : 'JSON objects, one per line';
   const header = [...new Set(objects.flatMap((o) => Object.keys(o)))];
   const preview = objects.slice(0, PREVIEW_ROWS).map((o) => header.map((h) => cell(o[h])));
   if (!objects.length) return unknown(fileName, header, preview, [baseClue, 'no complete object in the first part']);
-  const tracking = isArray ? null : detectTrackingJsonl(objects);
+  const tracking = isArray || wrapped ? null : detectTrackingJsonl(objects);
   const rows = objects.map((o) => Object.fromEntries(header.map((h) => [h, cell(o[h])])));
   const events = detectEvents(fileName, header, rows, 'json');
   const best = pick(tracking, events);

@@ -36,7 +36,8 @@ export function guessGrid(xs: number[], ys: number[], hint = ''): GridGuess {
   const origin = yDownHint ? 'top_left' : 'bottom_left';
   const yDown = yDownHint;
   const yNote = yDownHint ? 'y grows downwards (name says so)' : 'y taken as growing upwards (values cannot tell; check)';
-  if (maxX <= 1.05 && maxY <= 1.05) {
+  // Up to 1.2: positions a little beyond the lines still read as a 0..1 grid (metres would reach far higher).
+  if (maxX <= 1.2 && maxY <= 1.2) {
     return { coordinates: { ...base, unit: 'normalised', origin, yDown }, clues: [`${range}: normalised 0..1 from a corner; ${yNote}`], confidence: 0.7 };
   }
   if (maxX <= 101 && maxY <= 101 && maxY > 72) {

@@ -1,17 +1,23 @@
 /**
- * Streams the objects of a JSON array (`[{...}, {...}]`) or of JSON Lines / concatenated
- * objects, one at a time, without holding the whole text: a small scanner tracks strings
- * and brace depth, and each complete object is handed to JSON.parse on its own.
+ * Streams the records of a JSON event file one object at a time, without holding the
+ * whole text: a small scanner tracks strings and nesting, and each complete record object
+ * is handed to JSON.parse on its own. Three shapes:
+ * - an array of objects: `[{...}, {...}]`;
+ * - JSON Lines / concatenated objects: `{...}\n{...}`;
+ * - a wrapper object whose array fields hold the records, e.g. `{"teams": {...}, "events": [{...}]}`
+ *   (told from JSON Lines by the first object running over more than one line).
  */
 export class JsonObjectSplitter {
-  private depth = 0; // brace/bracket depth
+  private stack: number[] = []; // open brackets: 123 '{' or 91 '['
   private inString = false;
   private escape = false;
-  private arrayDepth = -1; // depth of the outer array, when the text is an array
-  private objStartDepth = -1;
+  private mode: 'unknown' | 'array' | 'lines' | 'wrapper' = 'unknown';
+  private recording = false;
+  private recordDepth = 0;
   private parts: string[] = [];
   private line = 1;
-  private objLine = 1;
+  private recordLine = 1;
+  private records = 0;
   private stray = false;
 
   constructor(
@@ -20,11 +26,21 @@ export class JsonObjectSplitter {
   ) {}
 
   push(chunk: string): void {
-    let segStart = -1;
-    if (this.objStartDepth !== -1) segStart = 0;
+    let segStart = this.recording ? 0 : -1;
+    const stack = this.stack;
     for (let i = 0; i < chunk.length; i++) {
       const c = chunk.charCodeAt(i);
-      if (c === 10) this.line++;
+      if (c === 10) {
+        this.line++;
+        // A first root object running over lines is a wrapper, not JSON Lines.
+        if (this.recording && this.mode === 'lines' && this.recordDepth === 0 && this.records === 0 && !this.inString) {
+          this.mode = 'wrapper';
+          this.recording = false;
+          this.parts = [];
+          segStart = -1;
+        }
+        continue;
+      }
       if (this.inString) {
         if (this.escape) this.escape = false;
         else if (c === 92) this.escape = true;
@@ -32,42 +48,55 @@ export class JsonObjectSplitter {
         continue;
       }
       if (c === 34) {
-        if (this.objStartDepth === -1) this.strayAt(`a string outside any object`);
         this.inString = true;
+        if (!this.recording && stack.length === 0) this.strayAt('a string outside any object');
       } else if (c === 123 /* { */) {
-        if (this.objStartDepth === -1 && (this.depth === 0 || this.depth === this.arrayDepth + 1)) {
-          this.objStartDepth = this.depth;
-          this.objLine = this.line;
+        if (!this.recording && this.isRecordStart()) {
+          if (this.mode === 'unknown') this.mode = 'lines';
+          this.recording = true;
+          this.recordDepth = stack.length;
+          this.recordLine = this.line;
+          this.parts = [];
           segStart = i;
-          this.parts = [];
         }
-        this.depth++;
+        stack.push(123);
       } else if (c === 91 /* [ */) {
-        if (this.depth === 0 && this.arrayDepth === -1 && this.objStartDepth === -1) this.arrayDepth = 0;
-        this.depth++;
+        if (stack.length === 0 && this.mode === 'unknown') this.mode = 'array';
+        stack.push(91);
       } else if (c === 125 /* } */ || c === 93 /* ] */) {
-        this.depth--;
-        if (this.depth < 0) {
-          this.strayAt('a closing bracket with no opening one');
-          this.depth = 0;
+        const open = stack.pop();
+        if (open === undefined || (open === 123) !== (c === 125)) {
+          this.strayAt(open === undefined ? 'a closing bracket with no opening one' : 'brackets that do not match');
+          if (open !== undefined) stack.push(open);
+          continue;
         }
-        if (c === 125 && this.objStartDepth !== -1 && this.depth === this.objStartDepth) {
+        if (c === 125 && this.recording && stack.length === this.recordDepth) {
           this.parts.push(chunk.slice(segStart, i + 1));
-          this.onObject(this.parts.join(''), this.objLine);
-          this.parts = [];
-          this.objStartDepth = -1;
+          this.recording = false;
           segStart = -1;
+          this.records++;
+          this.onObject(this.parts.join(''), this.recordLine);
+          this.parts = [];
         }
-      } else if (this.objStartDepth === -1 && c > 32 && c !== 44 /* , */) {
+      } else if (!this.recording && c > 32 && c !== 44 /* , */ && c !== 58 /* : */ && (stack.length === 0 || (this.mode === 'array' && stack.length === 1))) {
         this.strayAt('text outside any object');
       }
     }
-    if (this.objStartDepth !== -1 && segStart !== -1) this.parts.push(chunk.slice(segStart));
+    if (this.recording && segStart !== -1) this.parts.push(chunk.slice(segStart));
   }
 
   end(): void {
-    if (this.objStartDepth !== -1) this.onStray(this.objLine, 'an object that never closes (the file seems cut short)');
-    else if (this.depth > 0) this.onStray(this.line, 'an array that never closes (the file seems cut short)');
+    if (this.recording) this.onStray(this.recordLine, 'an object that never closes (the file seems cut short)');
+    else if (this.stack.length > 0) this.onStray(this.line, 'a bracket that never closes (the file seems cut short)');
+  }
+
+  /** Whether an object opening here is a record, given the shape seen so far. */
+  private isRecordStart(): boolean {
+    const s = this.stack;
+    if (s.length === 0) return this.mode !== 'array' && this.mode !== 'wrapper';
+    if (this.mode === 'array') return s.length === 1 && s[0] === 91;
+    if (this.mode === 'wrapper') return s.length === 2 && s[0] === 123 && s[1] === 91;
+    return false;
   }
 
   private strayAt(what: string): void {
