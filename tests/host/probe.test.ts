@@ -31,6 +31,7 @@ const clips: { name: string; variable: boolean }[] = [
   { name: 'vfr.mkv', variable: true },
   { name: 'offset.m2t', variable: false },
   { name: 'cfr25.webm', variable: false },
+  { name: 'fragmented.mp4', variable: false },
 ];
 
 describe('probeFootageFile equals ffprobe (Debian ffmpeg 5.1) on the reference clips', () => {
