@@ -159,6 +159,7 @@ describe('Sources screen', () => {
     const panel = page.getByRole('region', { name: 'Mapping for events.csv' });
     await panel.waitFor();
     await panel.getByText('mapping remembered from an earlier file').waitFor();
+    await panel.getByRole('note').filter({ hasText: 'already in this match project' }).waitFor();
     // Detection alone would say 68 m (DEFAULT_PITCH); 67 is the analyst's own edit.
     expect(await panel.getByRole('group', { name: 'Coordinates' }).getByLabel('Pitch width').inputValue()).toBe('67');
     await panel.getByRole('button', { name: 'Skip this file' }).click();

@@ -71,6 +71,7 @@ async function seed({ db, host, info }: AppServices, onSteps: (steps: SeedStep[]
           projectId,
           file: { fileName: f.name, path: f.path, size: f.size, mtimeMs: f.mtimeMs, url: absoluteUrl(f.url, location.href) },
           mapping,
+          detected: { ...(prepared.detection.mapping ? { mapping: prepared.detection.mapping } : {}), confidence: prepared.detection.confidence, clues: prepared.detection.clues },
           headerSignature: headerSignature(mapping.kind, prepared.detection.header),
           rememberMapping: false,
           user: info.userName,

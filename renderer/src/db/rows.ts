@@ -79,6 +79,8 @@ export interface SourceRow {
   mtimeMs: number;
   /** The mapping the import used (absent for footage). */
   mapping?: SourceMapping;
+  /** What detection proposed before the analyst's edits, kept to see what was changed. */
+  detected?: { mapping?: SourceMapping; confidence: number; clues: string[] };
   headerSignature?: string;
   summary: SourceSummary;
   /** Warnings the import reported (errors never get stored: such an import is refused). */

@@ -27,6 +27,7 @@ export interface StoreSourceRequest {
   summary: SourceSummary;
   warnings: ImportProblem[];
   mapping?: SourceMapping;
+  detected?: SourceRow['detected'];
   headerSignature?: string;
   /** Remember this mapping for files with the same header signature. */
   rememberMapping?: boolean;
@@ -53,6 +54,7 @@ export async function storeSource(db: WhistlemarkDb, req: StoreSourceRequest): P
       warnings: req.warnings,
       importedAt: now,
       ...(req.mapping ? { mapping: req.mapping } : {}),
+      ...(req.detected ? { detected: req.detected } : {}),
       ...(req.headerSignature ? { headerSignature: req.headerSignature } : {}),
     };
     const sourceId = (await db.sources.add(row)) as number;

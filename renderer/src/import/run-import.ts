@@ -5,7 +5,7 @@
  */
 import type { ImportOptions, ImportProblem, ImportProgress, ImportResult, RejectedRow, SourceMapping } from '../../../shared-types/index.ts';
 import type { WhistlemarkDb } from '../db/database.ts';
-import type { SourceSummary } from '../db/rows.ts';
+import type { SourceRow, SourceSummary } from '../db/rows.ts';
 import { storeSource, type ImportedPayload, type SourceFileInfo } from '../db/store.ts';
 import { summariseEvents, summariseTracking } from '../summaries.ts';
 import type { Importers, TextChunks } from './importers.ts';
@@ -15,6 +15,7 @@ export interface ImportJob {
   projectId: number;
   file: SourceFileInfo & { url: string };
   mapping: SourceMapping;
+  detected?: SourceRow['detected'];
   headerSignature?: string;
   rememberMapping: boolean;
   user: string;
@@ -57,6 +58,7 @@ export async function runImport(job: ImportJob, deps: ImportDeps): Promise<Impor
       summary,
       warnings,
       mapping: job.mapping,
+      ...(job.detected ? { detected: job.detected } : {}),
       ...(job.headerSignature ? { headerSignature: job.headerSignature } : {}),
       rememberMapping: job.rememberMapping,
       user: job.user,

@@ -12,6 +12,7 @@ import type { PreparedFile } from '../import/prepare.ts';
 import { absoluteUrl } from '../import/prepare.ts';
 import { ProblemList } from '../import/ProblemList.tsx';
 import type { ImportOutcome } from '../import/run-import.ts';
+import { AlreadyImported } from '../sources/AlreadyImported.tsx';
 import { formatBytes } from '../summaries.ts';
 import { blankMapping, mappingGaps } from './edit.ts';
 import { headerSignature } from './memory.ts';
@@ -63,6 +64,7 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
         projectId,
         file: { fileName: file.name, path: file.path, size: file.size, mtimeMs: file.mtimeMs, url: absoluteUrl(file.url, location.href) },
         mapping,
+        detected: { ...(detection.mapping ? { mapping: detection.mapping } : {}), confidence: detection.confidence, clues: detection.clues },
         // The signature is keyed by the kind the analyst settled on.
         headerSignature: headerSignature(mapping.kind, detection.header),
         rememberMapping: remember,
@@ -100,6 +102,7 @@ export function MappingPanel(props: { prepared: Textual; projectId: number; queu
         </button>
       </header>
 
+      <AlreadyImported projectId={projectId} file={file} />
       <div className="detect-row">
         <div className="detect-summary">
           <h3>Detected</h3>

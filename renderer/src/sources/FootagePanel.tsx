@@ -4,6 +4,7 @@ import type { OpenedFile } from '../../../shared-types/index.ts';
 import { useServices } from '../app/context.ts';
 import { importFootage } from '../import/footage.ts';
 import { formatBytes } from '../summaries.ts';
+import { AlreadyImported } from './AlreadyImported.tsx';
 
 export function FootagePanel({ file, projectId, onStored, onSkip }: { file: OpenedFile; projectId: number; onStored: () => void; onSkip: () => void }) {
   const { db, host, info } = useServices();
@@ -40,6 +41,7 @@ export function FootagePanel({ file, projectId, onStored, onSkip }: { file: Open
           Skip this file
         </button>
       </header>
+      <AlreadyImported projectId={projectId} file={file} />
       <p>Footage needs no mapping. Importing reads its container, codecs and the time of every frame.</p>
       {error && <p className="error-text" role="alert">{error}</p>}
       <div className="actions">

@@ -59,7 +59,15 @@ describe('import with the engine importers', () => {
     if (trk.kind === 'footage' || !trk.mapping) throw new Error('tracking not mapped');
     expect(mappingGaps(trk.mapping, trk.detection.header)).toEqual([]);
     const t = await runImport(
-      { projectId, file: { ...trk.file, fileName: trk.file.name }, mapping: trk.mapping, headerSignature: trk.signature, rememberMapping: true, user: 'analyst' },
+      {
+        projectId,
+        file: { ...trk.file, fileName: trk.file.name },
+        mapping: trk.mapping,
+        detected: { confidence: trk.detection.confidence, clues: trk.detection.clues },
+        headerSignature: trk.signature,
+        rememberMapping: true,
+        user: 'analyst',
+      },
       { db, importers: engineImporters, fetch: serve, onProgress: () => {}, signal },
     );
     expect(t.status, JSON.stringify(t)).toBe('stored');
@@ -69,6 +77,7 @@ describe('import with the engine importers', () => {
     expect(t.summary.periods.map((p) => p.frames)).toEqual([200, 200]);
     expect(t.summary.players).toEqual({ home: 2, away: 2, unknown: 0 });
     expect(t.summary.hasBall).toBe(true);
+    expect((await db.sources.get(t.sourceId))?.detected?.confidence).toBe(trk.detection.confidence);
     const p2 = await loadTrackingPeriod(db, t.sourceId, 2);
     expect(p2.frameCount).toBe(200);
 
