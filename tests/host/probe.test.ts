@@ -1,4 +1,6 @@
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { probeFootageFile, sniffContainer } from '../../electron/host/footage/probe.ts';
 import { frameTable, snapRate } from '../../electron/host/footage/frame-table.ts';
@@ -130,6 +132,16 @@ describe('ffmpeg log parsing (format of ffmpeg 5.1 stderr and the framecrc muxer
 describe('probe errors name the file and what to do', () => {
   it('missing file', async () => {
     await expect(probeFootageFile('/nonexistent/whistlemark-missing.mp4')).rejects.toThrow(/whistlemark-missing\.mp4: file not found/);
+  });
+  it('a recording cut off before its moov box (recorder still writing, or crashed)', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'wm-probe-'));
+    try {
+      // cfr25.mp4 keeps its moov after the mdat (ffmpeg's default layout): the first 30 kB have none.
+      writeFileSync(join(dir, 'cut.mp4'), readFileSync(refDir + 'cfr25.mp4').subarray(0, 30_000));
+      await expect(probeFootageFile(join(dir, 'cut.mp4'))).rejects.toThrow(/cut\.mp4: no movie header \(moov box\) found; the recording may be incomplete/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
   it('a text file handed in as footage', async () => {
     await expect(probeFootageFile(refDir + 'make-reference.sh')).rejects.toThrow(/make-reference\.sh: .*is this a video file\?/);

@@ -43,6 +43,16 @@ export async function probeFootageFile(path: string): Promise<FootageProbe> {
     await handle.close();
   }
   const kind = sniffContainer(head.subarray(0, n));
-  if (kind === 'mp4' || kind === 'mov') return probeMp4(path, kind);
-  return probeWithWasm(path);
+  if (kind !== 'mp4' && kind !== 'mov') return probeWithWasm(path);
+  try {
+    return await probeMp4(path, kind);
+  } catch (mp4Error) {
+    // An MP4/MOV mp4box cannot read may still be readable by ffmpeg (odd QuickTime
+    // boxes, damaged index); if ffmpeg fails too, mp4box's message says more.
+    try {
+      return await probeWithWasm(path);
+    } catch {
+      throw mp4Error;
+    }
+  }
 }
