@@ -21,6 +21,8 @@ export interface CsvRecord {
   readonly unterminated: boolean;
   field(i: number): string;
   num(i: number): number;
+  /** Numbers of many fields at once (out[k] = num(fields[k])): one call per row in the hot loop. */
+  nums(fields: Int32Array, out: Float64Array): void;
   /** The record as it appeared in the file (for rejected-row reports). */
   text(): string;
 }
@@ -52,6 +54,20 @@ class RecordView implements CsvRecord {
       return parseNumberRange(v, 0, v.length);
     }
     return parseNumberRange(this.src, this.starts[i], this.ends[i]);
+  }
+  nums(fields: Int32Array, out: Float64Array): void {
+    if (this.values) {
+      for (let k = 0; k < fields.length; k++) out[k] = this.num(fields[k]);
+      return;
+    }
+    const src = this.src;
+    const starts = this.starts;
+    const ends = this.ends;
+    const count = this.count;
+    for (let k = 0; k < fields.length; k++) {
+      const i = fields[k];
+      out[k] = i >= 0 && i < count ? parseNumberRange(src, starts[i], ends[i]) : NaN;
+    }
   }
   text(): string {
     return this.values ? this.rawText : this.src.slice(this.lineStart, this.lineEnd);

@@ -103,6 +103,8 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         if (isBall) store.objects[obj].role = 'ball';
         cols.wide.push({ obj, x: xi, y: yi, z: isBall ? cols.z : -1 });
       }
+      wideFields = Int32Array.from(cols.wide.flatMap((w) => [w.x, w.y]));
+      wideValues = new Float64Array(wideFields.length);
     }
   };
 
@@ -116,6 +118,8 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
     });
   };
 
+  let wideFields = new Int32Array(0);
+  let wideValues = new Float64Array(0);
   const onRow = (rec: CsvRecord): void => {
     const c = cols!;
     rows++;
@@ -160,9 +164,12 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       store.sample(entry, obj, x, y, z);
     } else {
       const entry = store.entry(period, frame, time, rec.line);
-      for (const w of c.wide) {
-        const x = rec.num(w.x);
-        const y = rec.num(w.y);
+      // All x/y fields of the row in one call, then one sample per object.
+      rec.nums(wideFields, wideValues);
+      for (let k = 0; k < c.wide.length; k++) {
+        const w = c.wide[k];
+        const x = wideValues[2 * k];
+        const y = wideValues[2 * k + 1];
         if (x !== x) badNumber(rec, w.x, `column ${w.x + 1}`);
         if (y !== y) badNumber(rec, w.y, `column ${w.y + 1}`);
         store.sample(entry, w.obj, x, y, w.z !== -1 ? rec.num(w.z) : NaN);
