@@ -75,7 +75,7 @@ describe('container sniffing by magic numbers (ISO/IEC 14496-12 ftyp, EBML 1A45D
   it('recognises each reference clip', () => {
     const head = (n: string) => new Uint8Array(readFileSync(refDir + n).subarray(0, 940));
     expect(sniffContainer(head('cfr25.mp4'))).toBe('mp4');
-    expect(sniffContainer(head('ntsc.mov'))).toBe('mov'); // 'qt  ' major brand (QuickTime File Format)
+    expect(sniffContainer(head('ntsc.mov'))).toBe('mov'); // 'qt  ' major brand of MOV files (ISO/IEC 14496-12 ftyp box, brand list from memory)
     expect(sniffContainer(head('vfr.mkv'))).toBe('matroska');
     expect(sniffContainer(head('cfr25.webm'))).toBe('matroska');
     expect(sniffContainer(head('offset.m2t'))).toBe('mpegts');

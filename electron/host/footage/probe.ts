@@ -47,7 +47,7 @@ export async function probeFootageFile(path: string): Promise<FootageProbe> {
   try {
     return await probeMp4(path, kind);
   } catch (mp4Error) {
-    // An MP4/MOV mp4box cannot read may still be readable by ffmpeg (odd QuickTime
+    // An MP4/MOV mp4box cannot read may still be readable by ffmpeg (odd MOV
     // boxes, damaged index); if ffmpeg fails too, mp4box's message says more.
     try {
       return await probeWithWasm(path);
