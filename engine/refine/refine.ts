@@ -153,7 +153,15 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       perEvent.push({ cands, scores });
       dp.push({ options: cands.map((c, j) => ({ t: c.t, score: scores[j] })), nullScore: NULL_SCORE, mayTie: e.kind === 'period_start' || e.kind === 'kick_off' || e.kind === 'goal' });
     });
-    const picks = chooseMonotone(dp);
+    // Goal kicks are logged seconds off (common practice), often after the passes that
+    // followed them, so forcing them into the log's order would throw away either them or
+    // those passes. They form their own ordered chain; everything else keeps log order.
+    const loose = idxs.map((i) => log.events[i].kind === 'goal_kick');
+    const picks = new Array<number>(idxs.length).fill(-1);
+    for (const wanted of [false, true]) {
+      const ks = idxs.map((_, k) => k).filter((k) => loose[k] === wanted);
+      chooseMonotone(ks.map((k) => dp[k])).forEach((pick, j) => (picks[ks[j]] = pick));
+    }
     idxs.forEach((i, k) => {
       const e = log.events[i];
       const tp = predicted[k];
