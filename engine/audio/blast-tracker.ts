@@ -97,10 +97,14 @@ export class BlastTracker {
     // A whistle's harmonic shows in most frames; noise passes the test in a few per cent.
     const share = run.harmonicChecked ? run.harmonicPresent / run.harmonicChecked : 1;
     if (this.opts.requireHarmonic && run.harmonicChecked > 0 && share < this.opts.minHarmonicShare) return null;
+    const strengthDb = median(run.prominence);
+    // No frame could see the harmonic: only a clearly stronger tone counts (coding
+    // artefacts of lossy audio make weak steady tones up there).
+    if (this.opts.requireHarmonic && run.harmonicChecked === 0 && strengthDb < this.opts.minProminenceUncheckedDb) return null;
     return {
       onset: run.firstFrame * this.hopS + this.centreS,
       offset: run.lastTonalFrame * this.hopS + this.centreS,
-      strengthDb: median(run.prominence),
+      strengthDb,
       fundamentalHz: median(run.hz),
       harmonicChecked: run.harmonicChecked > 0,
       harmonicShare: run.harmonicChecked ? share : undefined,

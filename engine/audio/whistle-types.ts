@@ -43,6 +43,11 @@ export interface WhistleDetectorOptions {
   minHarmonicShare?: number;
   /** Require the harmonic where it lies below Nyquist (default true). */
   requireHarmonic?: boolean;
+  /**
+   * Where the harmonic lies above Nyquist (fundamentals above ~3.8 kHz at 16 kHz) there is
+   * less evidence, so a blast must stand higher: median strength in dB (default 21).
+   */
+  minProminenceUncheckedDb?: number;
   /** Shortest blast, seconds (default 0.15). */
   minBlastS?: number;
   /** Longest blast, seconds (default 4): a steadier tone is equipment or a horn, not a referee. */
@@ -69,6 +74,7 @@ export function resolveOptions(o: WhistleDetectorOptions): ResolvedOptions {
     minHarmonicDb: o.minHarmonicDb ?? 8,
     minHarmonicShare: o.minHarmonicShare ?? 0.5,
     requireHarmonic: o.requireHarmonic ?? true,
+    minProminenceUncheckedDb: o.minProminenceUncheckedDb ?? 21,
     minBlastS: o.minBlastS ?? 0.15,
     maxBlastS: o.maxBlastS ?? 4,
     maxPitchStepHz: o.maxPitchStepHz ?? 250,

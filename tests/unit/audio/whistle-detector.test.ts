@@ -131,6 +131,15 @@ describe('what is and is not a whistle', () => {
     expect(detect(steady(6))).toEqual([]);
     expect(detect(steady(3)).map((c) => Math.round(c.duration))).toEqual([3]);
   });
+  it('above ~3.8 kHz (harmonic past Nyquist at 16 kHz) a weak tone is refused, a strong one kept', () => {
+    // White noise at RMS 0.01 puts the per-bin floor ~53 dB under a 0.5-amplitude tone
+    // (see the 0.5 s blast test); 0.5 / 10^(35/20) leaves it ~18 dB up, 0.5 / 10^(25/20) ~28 dB.
+    const weak = detect(place(quiet(), pureTone(4300, 0.6).map((v) => v / 10 ** (35 / 20)), 1));
+    const strong = detect(place(quiet(), pureTone(4300, 0.6).map((v) => v / 10 ** (25 / 20)), 1));
+    expect(weak).toEqual([]);
+    expect(strong).toHaveLength(1);
+    expect(strong[0].blasts[0].harmonicChecked).toBe(false);
+  });
   it('a broadband burst (a clap-like click train) is not a whistle', () => {
     const rnd = mulberry32(5);
     const x = quiet();
