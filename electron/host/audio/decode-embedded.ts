@@ -5,8 +5,11 @@
  * with `fs.readSync` on the real file — Node has no FileReaderSync), and ffmpeg writes its
  * PCM to a character device whose `write` hands each block straight to `onChunk`. So a
  * 90-minute file needs neither its own size nor its PCM's size in wasm memory.
- * exec() is synchronous: cancelling is noticed at the next write, which then fails with
- * EIO so ffmpeg stops cleanly.
+ * exec() is synchronous and blocks its thread for the whole decode (about a minute or
+ * two for 90 minutes on this machine). So in the app it belongs in a worker thread, and
+ * cancelling from outside means terminating that worker; the AbortSignal is checked at
+ * every PCM write (then the write fails with EIO and ffmpeg stops cleanly), which serves
+ * aborts raised from inside onChunk/onProgress, e.g. by a consumer that has seen enough.
  */
 import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
 import { basename } from 'node:path';
