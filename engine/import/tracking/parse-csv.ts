@@ -38,8 +38,9 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
   let headerWidth = 0;
   const teamByName = new Map<string, TeamSide>();
 
+  let header: string[] = [];
   const onHeader = (rec: CsvRecord): void => {
-    const header: string[] = [];
+    header = [];
     for (let i = 0; i < rec.count; i++) header.push(rec.field(i).trim());
     headerWidth = header.length;
     const index = (name: string | undefined, what: string, required: boolean): number => {
@@ -170,8 +171,8 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         const w = c.wide[k];
         const x = wideValues[2 * k];
         const y = wideValues[2 * k + 1];
-        if (x !== x) badNumber(rec, w.x, `column ${w.x + 1}`);
-        if (y !== y) badNumber(rec, w.y, `column ${w.y + 1}`);
+        if (x !== x) badNumber(rec, w.x, header[w.x]);
+        if (y !== y) badNumber(rec, w.y, header[w.y]);
         store.sample(entry, w.obj, x, y, w.z !== -1 ? rec.num(w.z) : NaN);
       }
     }

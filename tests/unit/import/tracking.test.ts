@@ -209,6 +209,20 @@ describe('tracking import: validation is located and all-or-nothing', () => {
     expect(r.data!.periods[0].present[6]).toBe(0);
   });
 
+  it('a value that is not a number: warning naming line and column, value taken as missing', async () => {
+    const lines = wide.split('\n');
+    const cells = lines[4].split(',');
+    const col = lines[0].split(',').indexOf('home_1_x');
+    cells[col] = 'abc';
+    lines[4] = cells.join(',');
+    const { r } = await detectAndImport('num.csv', lines.join('\n'));
+    expect(r.ok).toBe(true);
+    expect(r.problems).toContainEqual(expect.objectContaining({ severity: 'warning', line: 5, column: 'home_1_x' }));
+    const n = r.data!.objects.length;
+    const k = r.data!.objects.findIndex((o) => o.id === 'home_1');
+    expect(r.data!.periods[0].x[3 * n + k]).toBeNaN();
+  });
+
   it('many unreadable rows -> error, no data', async () => {
     const lines = wide.split('\n').map((l, i) => (i > 0 && i % 3 === 0 ? 'garbage;;;' : l));
     const { r } = await detectAndImport('many.csv', lines.join('\n'));
