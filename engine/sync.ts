@@ -56,7 +56,7 @@ export function syncMatch(tracking: TrackingData, events: EventLog, opts: SyncOp
     const pairs = new Map<PeriodId, ClockPair[]>();
     corrections.forEach((c, i) => {
       const e = events.events[i];
-      if (!c.placed || c.confidence < 0.5 || !REFIT_KINDS.has(e.kind)) return;
+      if (!c.placed || c.confidence < 0.25 || !REFIT_KINDS.has(e.kind)) return;
       const list = pairs.get(e.period) ?? [];
       list.push({ anchorId: `evt-${e.id}`, kind: e.kind === 'pass' ? 'touch' : (e.kind as ClockPair['kind']), t: e.t, tRef: c.trackingTime });
       pairs.set(e.period, list);

@@ -34,14 +34,14 @@ export function buildScenes(tracking: TrackingData, restarts: RestartAnchor[]): 
     const candidates: Candidate[] = [];
     const own = restarts.filter((r) => r.period === p.period && r.kind !== 'period_start' && r.kind !== 'period_end');
     for (const r of own)
-      candidates.push({ t: r.t, frameIndex: r.frameIndex, x: r.x ?? 0, y: r.y ?? 0, kind: 'restart', dv: 10, restartKind: r.kind, restartId: r.id });
+      candidates.push({ t: r.t, frameIndex: r.frameIndex, x: r.x ?? 0, y: r.y ?? 0, kind: 'restart', dv: 10, speedAfter: 10, restartKind: r.kind, restartId: r.id });
     if (tracking.ballIndex >= 0) {
       const bx = column(p.x, tracking.ballIndex, nObj, p.frameCount);
       const by = column(p.y, tracking.ballIndex, nObj, p.frameCount);
       for (const k of ballTouches(bx, by, tracking.rate)) {
         // A touch at a restart's moment is that restart.
         if (own.some((r) => Math.abs(r.t - k.t) < 0.2)) continue;
-        candidates.push({ t: k.t, frameIndex: k.frameIndex, x: k.x, y: k.y, kind: 'touch', dv: k.dv });
+        candidates.push({ t: k.t, frameIndex: k.frameIndex, x: k.x, y: k.y, kind: 'touch', dv: k.dv, speedAfter: k.speedAfter });
       }
       candidates.push(...goalLineCrossings(bx, by, tracking));
     }
@@ -65,7 +65,7 @@ function goalLineCrossings(bx: Float64Array, by: Float64Array, tracking: Trackin
         const y = by[f - 1] + u * (by[f] - by[f - 1]);
         const t = (f - 1 + u) / tracking.rate;
         if (Math.abs(y) <= 7.32 / 2 + 0.5 && t - last > 2) {
-          out.push({ t, frameIndex: f, x: side * hl, y, kind: 'goal_line', dv: 0 });
+          out.push({ t, frameIndex: f, x: side * hl, y, kind: 'goal_line', dv: 0, speedAfter: 0 });
           last = t;
         }
       }
@@ -82,19 +82,23 @@ function playerAt(e: MatchEvent, scene: PeriodScene, tracking: TrackingData, c: 
   const shirt = e.player !== undefined ? Number.parseInt(e.player, 10) : NaN;
   const idx = Number.isFinite(shirt) ? scene.playerIndex.get(`${e.team}:${shirt}`) : undefined;
   const distOf = (i: number) => Math.hypot(p.x[f * nObj + i] - c.x, p.y[f * nObj + i] - c.y);
+  const g = Math.min(p.frameCount - 1, f + Math.round(0.4 * tracking.rate));
+  const b = tracking.ballIndex;
+  const after = (i: number) => (b >= 0 ? Math.hypot(p.x[g * nObj + i] - p.x[g * nObj + b], p.y[g * nObj + i] - p.y[g * nObj + b]) : NaN);
+  const ok = (v: number) => (Number.isNaN(v) ? Infinity : v);
   if (idx !== undefined) {
     const d = distOf(idx);
-    if (!Number.isNaN(d)) return { dist: d, tagged: true, label: `${e.team} ${shirt}` };
+    if (!Number.isNaN(d)) return { dist: d, distAfter: ok(after(idx)), tagged: true, label: `${e.team} ${shirt}` };
   }
   // No such shirt in tracking: the nearest player of the team stands in.
-  let best = Infinity;
+  let best = Infinity, who = -1;
   tracking.objects.forEach((o, i) => {
     if (o.role === 'player' && o.team === e.team) {
       const d = distOf(i);
-      if (d < best) best = d;
+      if (d < best) { best = d; who = i; }
     }
   });
-  return Number.isFinite(best) ? { dist: best, tagged: false, label: `${e.team} (nearest player)` } : undefined;
+  return Number.isFinite(best) ? { dist: best, distAfter: ok(after(who)), tagged: false, label: `${e.team} (nearest player)` } : undefined;
 }
 
 export interface RefineResult {

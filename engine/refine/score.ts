@@ -16,6 +16,8 @@ export interface Candidate {
   kind: CandidateKind;
   /** Velocity jump, m/s (touches and restarts). */
   dv: number;
+  /** Ball speed just after, m/s: a kick sends the ball off fast, a first touch does not. */
+  speedAfter: number;
   /** Restart kind seen in tracking, for restart candidates. */
   restartKind?: string;
   restartId?: string;
@@ -25,6 +27,8 @@ export interface Candidate {
 export interface PlayerAtBall {
   /** Distance from the tagged player (or, failing that, the nearest of the team) to the ball, m. */
   dist: number;
+  /** The same player's distance to the ball 0.4 s later (a kick leaves him behind). */
+  distAfter: number;
   /** True when it was the tagged player himself. */
   tagged: boolean;
   label: string;
@@ -80,6 +84,12 @@ export function scoreCandidate(e: MatchEvent, c: Candidate, predicted: Seconds, 
       s += Math.max(-12, -0.5 * (d / 0.8) ** 2) * (player.tagged ? 1 : 0.5);
     }
     s += Math.max(-1, Math.min(2, 1.5 * Math.log(c.dv / 4)));
+    // Kick signature: the ball leaves fast and leaves the player (passes leave at 8 m/s
+    // or more, common practice); a first touch or a dribble keeps it at his feet.
+    if (e.kind !== 'goal') {
+      s += c.speedAfter >= 8 ? 0.5 : -0.7 * Math.min(6, 8 - c.speedAfter);
+      if (player && player.distAfter < 1.5) s -= 3;
+    }
   }
   if (e.x !== undefined && e.y !== undefined) {
     const d = Math.hypot(c.x - e.x, c.y - e.y);
