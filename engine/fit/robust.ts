@@ -39,9 +39,9 @@ export function mad(values: ArrayLike<number>): number {
  */
 export function theilSen(xs: ArrayLike<number>, ys: ArrayLike<number>): { slope: number; intercept: number } {
   const n = xs.length;
-  // O(n²) pairs; above ~600 points use a deterministic stride subset of pairs (still
-  // ~180k slopes), which keeps the estimate's breakdown point and stays fast.
-  const step = n > 600 ? Math.ceil(n / 600) : 1;
+  // O(n²) pairs; above 200 points a deterministic stride subset of first points (still
+  // tens of thousands of slopes) keeps the estimate's breakdown point and stays fast.
+  const step = n > 200 ? Math.ceil(n / 200) : 1;
   const slopes: number[] = [];
   for (let i = 0; i < n; i += step)
     for (let j = i + 1; j < n; j++) {
@@ -101,7 +101,9 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
   let scale = minScale;
   for (let it = 0; it < (opts.iterations ?? 30); it++) {
     for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
-    scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => r[i])));
+    // The scale is re-estimated on the first iterations only, then held (it settles fast;
+    // each estimate costs two sorts).
+    if (it < 3) scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => r[i])));
     for (let i = 0; i < n; i++) w[i] = mask[i] > 0 ? Math.min(1, (k * scale) / Math.max(Math.abs(r[i]), 1e-300)) : 0;
     const fit = weightedLine(xs, ys, w);
     const moved = Math.abs(fit.intercept - a) + Math.abs(fit.slope - b) * (Math.abs(fit.mx) + 1);

@@ -77,28 +77,38 @@ function goalLineCrossings(bx: Float64Array, by: Float64Array, tracking: Trackin
 function playerAt(e: MatchEvent, scene: PeriodScene, tracking: TrackingData, c: Candidate): PlayerAtBall | undefined {
   if (!e.team) return undefined;
   const p = scene.period;
-  const nObj = tracking.objects.length;
   const f = Math.min(p.frameCount - 1, Math.max(0, Math.round(c.t * tracking.rate)));
+  const g = Math.min(p.frameCount - 1, f + Math.round(0.4 * tracking.rate));
   const shirt = e.player !== undefined ? Number.parseInt(e.player, 10) : NaN;
   const idx = Number.isFinite(shirt) ? scene.playerIndex.get(`${e.team}:${shirt}`) : undefined;
-  const distOf = (i: number) => Math.hypot(p.x[f * nObj + i] - c.x, p.y[f * nObj + i] - c.y);
-  const g = Math.min(p.frameCount - 1, f + Math.round(0.4 * tracking.rate));
-  const b = tracking.ballIndex;
-  const after = (i: number) => (b >= 0 ? Math.hypot(p.x[g * nObj + i] - p.x[g * nObj + b], p.y[g * nObj + i] - p.y[g * nObj + b]) : NaN);
-  const ok = (v: number) => (Number.isNaN(v) ? Infinity : v);
   if (idx !== undefined) {
-    const d = distOf(idx);
-    if (!Number.isNaN(d)) return { dist: d, distAfter: ok(after(idx)), tagged: true, label: `${e.team} ${shirt}` };
+    const d = distAt(p, tracking, idx, f, c.x, c.y);
+    if (!Number.isNaN(d)) return { dist: d, distAfter: distToBall(p, tracking, idx, g), tagged: true, label: `${e.team} ${shirt}` };
   }
   // No such shirt in tracking: the nearest player of the team stands in.
   let best = Infinity, who = -1;
-  tracking.objects.forEach((o, i) => {
-    if (o.role === 'player' && o.team === e.team) {
-      const d = distOf(i);
-      if (d < best) { best = d; who = i; }
-    }
-  });
-  return Number.isFinite(best) ? { dist: best, distAfter: ok(after(who)), tagged: false, label: `${e.team} (nearest player)` } : undefined;
+  for (let i = 0; i < tracking.objects.length; i++) {
+    const o = tracking.objects[i];
+    if (o.role !== 'player' || o.team !== e.team) continue;
+    const d = distAt(p, tracking, i, f, c.x, c.y);
+    if (d < best) { best = d; who = i; }
+  }
+  return who >= 0 ? { dist: best, distAfter: distToBall(p, tracking, who, g), tagged: false, label: `${e.team} (nearest player)` } : undefined;
+}
+
+/** Distance of object i at frame f from (x, y); NaN where missing. */
+function distAt(p: TrackingPeriod, tracking: TrackingData, i: number, f: number, x: number, y: number): number {
+  const n = tracking.objects.length;
+  return Math.hypot(p.x[f * n + i] - x, p.y[f * n + i] - y);
+}
+
+/** Distance of object i from the ball at frame g; Infinity when either is missing. */
+function distToBall(p: TrackingPeriod, tracking: TrackingData, i: number, g: number): number {
+  const b = tracking.ballIndex;
+  if (b < 0) return Infinity;
+  const n = tracking.objects.length;
+  const d = Math.hypot(p.x[g * n + i] - p.x[g * n + b], p.y[g * n + i] - p.y[g * n + b]);
+  return Number.isNaN(d) ? Infinity : d;
 }
 
 export interface RefineResult {
