@@ -5,7 +5,7 @@
  */
 import type { CliCommand } from '../cli.ts';
 import type { WhistleCandidate } from '../../engine/audio/index.ts';
-import { findNativeFfmpeg, type DecodeEngine } from '../host/audio/decode.ts';
+import type { DecodeEngine } from '../host/audio/decode.ts';
 import { SCAN_SAMPLE_RATE as SAMPLE_RATE, scanFootageWhistles } from '../host/audio/scan-footage.ts';
 
 const usage = `usage: whistlemark whistles FOOTAGE [--native | --embedded] [--json]
@@ -34,10 +34,7 @@ export const command: CliCommand = {
 
     const ctl = new AbortController();
     const onSigint = () => ctl.abort(Object.assign(new Error('cancelled (Ctrl-C)'), { name: 'AbortError' }));
-    // The embedded core blocks this thread while it runs, so a handler could not run until
-    // the end: there Ctrl-C keeps its default (stop at once). Native decoding stops cleanly.
-    const trapsSigint = engine === 'native' || (engine === 'auto' && findNativeFfmpeg() !== null);
-    if (trapsSigint) process.once('SIGINT', onSigint);
+    process.once('SIGINT', onSigint);
     const started = performance.now();
     let lastReport = started;
     try {

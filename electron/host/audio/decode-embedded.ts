@@ -1,54 +1,15 @@
 /**
  * Audio decode with the embedded ffmpeg.wasm core, for machines without ffmpeg.
  *
- * No whole-file copies: the footage is mounted read-only (WORKERFS, whose reads we serve
- * with `fs.readSync` on the real file — Node has no FileReaderSync), and ffmpeg writes its
- * PCM to a character device whose `write` hands each block straight to `onChunk`. So a
- * 90-minute file needs neither its own size nor its PCM's size in wasm memory.
- * exec() is synchronous and blocks its thread for the whole decode (about a minute or
- * two for 90 minutes on this machine). So in the app it belongs in a worker thread, and
- * cancelling from outside means terminating that worker; the AbortSignal is checked at
- * every PCM write (then the write fails with EIO and ffmpeg stops cleanly), which serves
- * aborts raised from inside onChunk/onProgress, e.g. by a consumer that has seen enough.
+ * The core runs in a worker thread (pcm-worker.mjs): its exec() blocks a thread for the
+ * whole decode, which must never be the host's. The file is mounted, not copied, and the
+ * PCM streams back as ffmpeg writes it, so memory stays flat over a 90-minute file.
+ * Cancelling terminates the worker.
  */
-import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
-import { basename } from 'node:path';
-import { loadEmbeddedCore } from './embedded-core.ts';
+import { Worker } from 'node:worker_threads';
+import { compiledCoreModule } from './embedded-core.ts';
 import { PcmChunker } from './pcm-chunker.ts';
 import { abortError, decodeFailure, pcmArgs, type DecodeOptions, type DecodeResult } from './decode-types.ts';
-
-/** A stand-in for a Blob slice: WORKERFS only asks for `size` and `slice`. */
-interface FileSlice {
-  fd: number;
-  start: number;
-  size: number;
-  slice(from: number, to: number): FileSlice;
-}
-
-function fileSlice(fd: number, start: number, size: number): FileSlice {
-  return {
-    fd,
-    start,
-    size,
-    slice: (from, to) => fileSlice(fd, start + from, Math.max(0, Math.min(size, to) - from)),
-  };
-}
-
-/** Serves WORKERFS reads from the file on disk. */
-const diskReader = {
-  readAsArrayBuffer(s: FileSlice): ArrayBuffer {
-    const buf = new Uint8Array(s.size);
-    let done = 0;
-    while (done < s.size) {
-      const n = readSync(s.fd, buf, done, s.size - done, s.start + done);
-      if (n === 0) break;
-      done += n;
-    }
-    return buf.buffer;
-  },
-};
-
-const EIO = 29;
 
 export interface EmbeddedOptions extends DecodeOptions {
   /**
@@ -58,53 +19,54 @@ export interface EmbeddedOptions extends DecodeOptions {
   input?: 'mount' | 'copy';
 }
 
+const workerUrl = new URL('./pcm-worker.mjs', import.meta.url);
+
+type WorkerMessage =
+  | { type: 'pcm'; bytes: ArrayBuffer }
+  | { type: 'done'; code: number; log: string[] }
+  | { type: 'failed'; message: string };
+
 export async function decodeEmbedded(file: string, opts: EmbeddedOptions): Promise<DecodeResult> {
   const sampleRate = opts.sampleRate ?? 16000;
   const { signal } = opts;
   if (signal?.aborted) throw abortError(signal);
-  const fd = openSync(file, 'r');
-  try {
-    const core = await loadEmbeddedCore();
-    const log: string[] = [];
-    core.setLogger((e) => log.push(e.message));
-    const FS = core.FS;
-    const workerfs = FS.filesystems.WORKERFS;
-    workerfs.reader = diskReader;
-    const name = basename(file).replace(/[^\w.-]/g, '_') || 'input';
-    FS.mkdir('/footage');
-    if (opts.input === 'copy') FS.writeFile(`/footage/${name}`, readFileSync(file));
-    else FS.mount(workerfs, { blobs: [{ name, data: fileSlice(fd, 0, fstatSync(fd).size) }] }, '/footage');
-
-    let failed: unknown = null;
-    const chunker = new PcmChunker((pcm) => {
-      opts.onChunk(pcm);
-      opts.onProgress?.(chunker.samples / sampleRate);
-    });
-    const dev = FS.makedev(64, 0);
-    FS.registerDevice(dev, {
-      open: () => {},
-      close: () => {},
-      write: (_s: unknown, buffer: Int8Array, offset: number, length: number) => {
-        if (failed) throw new FS.ErrnoError(EIO);
-        if (signal?.aborted) {
-          failed = abortError(signal);
-          throw new FS.ErrnoError(EIO);
-        }
+  const wasmModule = await compiledCoreModule();
+  const args = pcmArgs('{input}', sampleRate, '{output}');
+  const worker = new Worker(workerUrl, { workerData: { file, args, input: opts.input ?? 'mount', wasmModule } });
+  const chunker = new PcmChunker((pcm) => {
+    opts.onChunk(pcm);
+    opts.onProgress?.(chunker.samples / sampleRate);
+  });
+  return new Promise<DecodeResult>((resolve, reject) => {
+    let settled = false;
+    const finish = (err: unknown, result?: DecodeResult) => {
+      if (settled) return;
+      settled = true;
+      signal?.removeEventListener('abort', onAbort);
+      void worker.terminate();
+      if (err) reject(err);
+      else resolve(result!);
+    };
+    const onAbort = () => finish(abortError(signal!));
+    signal?.addEventListener('abort', onAbort, { once: true });
+    worker.on('message', (m: WorkerMessage) => {
+      if (settled) return;
+      if (m.type === 'pcm') {
         try {
-          chunker.push(new Uint8Array(buffer.buffer, buffer.byteOffset + offset, length));
+          chunker.push(new Uint8Array(m.bytes));
         } catch (err) {
-          failed = err;
-          throw new FS.ErrnoError(EIO);
+          finish(err);
         }
-        return length;
-      },
+        // A consumer may have aborted from inside onChunk / onProgress.
+        if (signal?.aborted) finish(abortError(signal));
+      } else if (m.type === 'done') {
+        if (m.code !== 0) finish(decodeFailure(file, 'embedded', m.log));
+        else finish(null, { engine: 'embedded', sampleRate, samples: chunker.samples, seconds: chunker.samples / sampleRate });
+      } else {
+        finish(new Error(`${file}: the embedded ffmpeg stopped: ${m.message}`));
+      }
     });
-    FS.mkdev('/pcm-out', dev);
-    const code = core.exec('-hide_banner', '-v', 'error', ...pcmArgs(`/footage/${name}`, sampleRate, '/pcm-out'));
-    if (failed) throw failed;
-    if (code !== 0) throw decodeFailure(file, 'embedded', log);
-    return { engine: 'embedded', sampleRate, samples: chunker.samples, seconds: chunker.samples / sampleRate };
-  } finally {
-    closeSync(fd);
-  }
+    worker.once('error', (e) => finish(new Error(`${file}: the embedded ffmpeg worker failed: ${e.message}`)));
+    worker.once('exit', (code) => finish(new Error(`${file}: the embedded ffmpeg worker stopped (exit code ${code}) before finishing`)));
+  });
 }

@@ -74,6 +74,19 @@ describe('decode + detect on the Debian-ffmpeg reference clip', () => {
     expect(chunks).toBe(2);
     expect((await decodeWhole(clip, 'embedded')).length).toBeGreaterThan(250_000);
   });
+  it('embedded decode stops on an abort from outside its callbacks (it runs in a worker thread)', async () => {
+    const ctl = new AbortController();
+    let chunks = 0;
+    const run = decodeAudio(clip, {
+      engine: 'embedded',
+      signal: ctl.signal,
+      onChunk: () => {
+        // The abort comes from a later task, as a Cancel button's would.
+        if (++chunks === 1) setTimeout(() => ctl.abort(), 0);
+      },
+    });
+    await expect(run).rejects.toThrow(/abort/i);
+  });
   it.skipIf(!native)('native decode stops when its AbortSignal fires', async () => {
     const ctl = new AbortController();
     const run = decodeAudio(clip, { engine: 'native', signal: ctl.signal, onChunk: () => ctl.abort() });
