@@ -153,7 +153,8 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
     idxs.forEach((i, k) => {
       const e = log.events[i];
       const tp = predicted[k];
-      const kinds = candidateKindsFor(e.kind);
+      // Without a ball only restarts (kick-offs from the formation) can be placed.
+      const kinds = tracking.ballIndex >= 0 ? candidateKindsFor(e.kind) : candidateKindsFor(e.kind).filter(() => isRestartKind(e.kind) || e.kind === 'period_start');
       const w = kindWindow(e.kind);
       let cands = kinds.length && Number.isFinite(tp) ? inWindow(scene.candidates, tp - w.before, tp + w.after).filter((c) => kinds.includes(c.kind)) : [];
       let scores = cands.map((c) => scoreCandidate(e, c, tp, playerAt(e, scene, tracking, c)));
@@ -188,6 +189,7 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       if (pick < 0) {
         const w = kindWindow(e.kind);
         const who = e.team ? `${e.team}${e.player ? ' ' + e.player : ''}` : 'anyone';
+        if (tracking.ballIndex < 0 && !isRestartKind(e.kind)) return void (out[i] = unplaced(i, tp, 'the tracking has no ball, so only kick-offs can be placed; kept the logged time'));
         const what = cands.length ? `${cands.length} candidate moments, none convincing` : 'no ball touch';
         return void (out[i] = unplaced(i, tp, `${what} for ${who} between ${w.before} s before and ${w.after} s after the logged time; kept the logged time`));
       }
