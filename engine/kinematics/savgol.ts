@@ -109,6 +109,8 @@ export function savgolSeries(
       // Window length is capped by the run; near the ends the window slides inwards.
       const h = Math.min(half, Math.floor((len - 1) / 2));
       const width = 2 * h + 1 > order ? 2 * h + 1 : Math.min(len, order + 1);
+      // Interior samples share one weight vector; only the ends need lopsided ones.
+      const wMid = savgolWeights(-h, width - 1 - h, order, deriv);
       for (let k = i; k <= j; k++) {
         let from = -h;
         let to = width - 1 - h;
@@ -119,7 +121,7 @@ export function savgolSeries(
           to = j - k;
           from = to - width + 1;
         }
-        const w = savgolWeights(from, to, order, deriv);
+        const w = from === -h ? wMid : savgolWeights(from, to, order, deriv);
         let s = 0;
         for (let q = 0; q < w.length; q++) s += w[q] * at(k + from + q);
         out[k] = s * scale;
