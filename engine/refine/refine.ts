@@ -169,12 +169,15 @@ export function refineEvents(tracking: TrackingData, log: EventLog, fit: ClockFi
       dp.push({ options: cands.map((c, j) => ({ t: c.t, score: scores[j] })), nullScore: NULL_SCORE, mayTie: e.kind === 'period_start' || e.kind === 'kick_off' || e.kind === 'goal' });
     });
     // Goal kicks are logged seconds off (common practice), often after the passes that
-    // followed them, so forcing them into the log's order would throw away either them or
-    // those passes. They form their own ordered chain; everything else keeps log order.
-    const loose = idxs.map((i) => log.events[i].kind === 'goal_kick');
+    // followed them, and a shot logged late can land after its own goal; forcing those
+    // into the log's order would throw away either them or their neighbours. Goal kicks
+    // and goals (both with unmistakable candidates) form their own ordered chains;
+    // everything else keeps log order.
+    const chainOf = (kind: string) => (kind === 'goal_kick' ? 1 : kind === 'goal' ? 2 : 0);
+    const chain = idxs.map((i) => chainOf(log.events[i].kind));
     const picks = new Array<number>(idxs.length).fill(-1);
-    for (const wanted of [false, true]) {
-      const ks = idxs.map((_, k) => k).filter((k) => loose[k] === wanted);
+    for (const wanted of [0, 1, 2]) {
+      const ks = idxs.map((_, k) => k).filter((k) => chain[k] === wanted);
       chooseMonotone(ks.map((k) => dp[k])).forEach((pick, j) => (picks[ks[j]] = pick));
     }
     idxs.forEach((i, k) => {
