@@ -6,9 +6,9 @@
  * CPU-time medians on this shared 2-core machine): on par — time ratio fft.js / ours
  * 0.87–1.09 over four runs; a first plain radix-2 version of ours was ~1.4× slower.
  * It stays because fft.js is the project's cross-check reference (a devDependency): the
- * tests compare our spectra with it, which
- * would prove nothing if the detector ran on fft.js itself, and the engine then needs no
- * runtime package. Swapping is local to whistle-detector.ts if that ever matters more.
+ * tests compare our spectra with it, which would prove nothing if the detector ran on
+ * fft.js itself, and the engine then needs no runtime package. Swapping is local to
+ * whistle-detector.ts if that ever matters more.
  *
  * Example: `new RealFft(512).power(frame, out)` fills out[0..256] with |X[k]|².
  */
