@@ -109,9 +109,10 @@ describe.skipIf(!haveFfmpeg)('truth homography puts the markings where the decod
     const rgb = decodeFrame(2400);
     const good = checkFrame(2400, rgb).line;
     const offU = checkFrame(2400, rgb, 6, 0).line, offV = checkFrame(2400, rgb, 0, 6).line;
-    // A shift along a line keeps it on the line, so each direction alone is only partly off.
+    // A shift along a line keeps it on the line, so each direction alone is only partly off
+    // (how much depends on which lines the frame shows); across it, the check must break.
     expect((offU + offV) / 2).toBeLessThan(0.5);
-    expect(good - Math.max(offU, offV)).toBeGreaterThan(0.3);
+    expect(good - Math.min(offU, offV)).toBeGreaterThan(0.5);
   });
 });
 

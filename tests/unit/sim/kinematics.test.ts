@@ -43,7 +43,7 @@ describe('player motion is humanly possible (common practice, REFERENCES.md)', (
     for (const e of w.events) {
       if (e.kind !== 'pass') continue;
       const p = w.periods.find((q) => q.period === e.period)!;
-      const f = Math.round((e.t - p.t0) * w.rate); // first frame after the kick
+      const f = Math.round((e.t - p.t0) * w.rate) + 1; // first frame after the kick
       const v = Math.hypot(p.x[f * 23 + 22] - p.x[(f - 1) * 23 + 22], p.y[f * 23 + 22] - p.y[(f - 1) * 23 + 22]) / dt;
       speeds.push(v);
     }

@@ -116,7 +116,7 @@ describe('restarts sit where the Laws put them (demo match)', () => {
       expect(r.deadT).toBeLessThanOrEqual(r.placedT);
       expect(r.playedT - r.placedT).toBeGreaterThanOrEqual(1);
       const p = periodOf(r);
-      const f0 = frameOf(w, p, r.placedT), f1 = frameOf(w, p, r.playedT) - 1;
+      const f0 = frameOf(w, p, r.placedT) + 1, f1 = frameOf(w, p, r.playedT) - 1;
       for (let f = f0; f <= f1; f++) {
         expect(Math.hypot(p.x[f * 23 + 22] - r.x, p.y[f * 23 + 22] - r.y)).toBeLessThan(1e-3);
         expect(p.live[f]).toBe(0);
