@@ -27,6 +27,11 @@ export interface CsvRecord {
   num(i: number): number;
   /** Numbers of many fields at once (out[k] = num(fields[k])): one call per row in the hot loop. */
   nums(fields: Int32Array, out: Float64Array): void;
+  /**
+   * Pairs of fields straight into float slots: xs[at + k] = num(fields[2k]) and
+   * ys[at + k] = num(fields[2k + 1]) (wide tracking rows: x/y per object, no copy between).
+   */
+  numsXY(fields: Int32Array, xs: Float32Array, ys: Float32Array, at: number): void;
   /** The record as it appeared in the file (for rejected-row reports). */
   text(): string;
 }
@@ -71,6 +76,26 @@ class RecordView implements CsvRecord {
     for (let k = 0; k < fields.length; k++) {
       const i = fields[k];
       out[k] = i >= 0 && i < count ? parseNumberRange(src, starts[i], ends[i]) : NaN;
+    }
+  }
+  numsXY(fields: Int32Array, xs: Float32Array, ys: Float32Array, at: number): void {
+    const pairs = fields.length >> 1;
+    if (this.values) {
+      for (let k = 0; k < pairs; k++) {
+        xs[at + k] = this.num(fields[2 * k]);
+        ys[at + k] = this.num(fields[2 * k + 1]);
+      }
+      return;
+    }
+    const src = this.src;
+    const starts = this.starts;
+    const ends = this.ends;
+    const count = this.count;
+    for (let k = 0; k < pairs; k++) {
+      const i = fields[2 * k];
+      const j = fields[2 * k + 1];
+      xs[at + k] = i >= 0 && i < count ? parseNumberRange(src, starts[i], ends[i]) : NaN;
+      ys[at + k] = j >= 0 && j < count ? parseNumberRange(src, starts[j], ends[j]) : NaN;
     }
   }
   text(): string {

@@ -87,6 +87,18 @@ export class FrameStore {
     this.sampleCount = k + 1;
   }
 
+  /**
+   * Room for `n` more samples, counted as taken: the caller writes slots [start, start + n)
+   * of the sample arrays itself (wide rows fill a whole row of objects at once, without a
+   * call per sample). Read the arrays after this call: growing replaces them.
+   */
+  reserveSamples(n: number): number {
+    const start = this.sampleCount;
+    while (start + n > this.sampleX.length) this.growSamples();
+    this.sampleCount = start + n;
+    return start;
+  }
+
   private growSamples(): void {
     const n = this.sampleX.length * 2;
     const e = new Int32Array(n);

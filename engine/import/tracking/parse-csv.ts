@@ -105,7 +105,8 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
         cols.wide.push({ obj, x: xi, y: yi, z: isBall ? cols.z : -1 });
       }
       wideFields = Int32Array.from(cols.wide.flatMap((w) => [w.x, w.y]));
-      wideValues = new Float64Array(wideFields.length);
+      wideObjects = Int16Array.from(cols.wide.map((w) => w.obj));
+      wideZSlots = Int32Array.from(cols.wide.flatMap((w, k) => (w.z !== -1 ? [k] : [])));
     }
   };
 
@@ -120,7 +121,9 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
   };
 
   let wideFields = new Int32Array(0);
-  let wideValues = new Float64Array(0);
+  let wideObjects = new Int16Array(0);
+  /** Slots of the objects whose height is read from the z column (the ball). */
+  let wideZSlots = new Int32Array(0);
   const onRow = (rec: CsvRecord): void => {
     const c = cols!;
     rows++;
@@ -165,15 +168,20 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       store.sample(entry, obj, x, y, z);
     } else {
       const entry = store.entry(period, frame, time, rec.line);
-      // All x/y fields of the row in one call, then one sample per object.
-      rec.nums(wideFields, wideValues);
-      for (let k = 0; k < c.wide.length; k++) {
-        const w = c.wide[k];
-        const x = wideValues[2 * k];
-        const y = wideValues[2 * k + 1];
-        if (x !== x) badNumber(rec, w.x, header[w.x]);
-        if (y !== y) badNumber(rec, w.y, header[w.y]);
-        store.sample(entry, w.obj, x, y, w.z !== -1 ? rec.num(w.z) : NaN);
+      // The whole row of objects at once, numbers parsed straight into the store's slots
+      // (no call and no intermediate array per sample); problems checked afterwards.
+      const n = c.wide.length;
+      const at = store.reserveSamples(n);
+      rec.numsXY(wideFields, store.sampleX, store.sampleY, at);
+      store.sampleEntry.fill(entry, at, at + n);
+      store.sampleObject.set(wideObjects, at);
+      store.sampleZ.fill(NaN, at, at + n);
+      for (let b = 0; b < wideZSlots.length; b++) store.sampleZ[at + wideZSlots[b]] = rec.num(c.z);
+      const sX = store.sampleX;
+      const sY = store.sampleY;
+      for (let k = 0; k < n; k++) {
+        if (sX[at + k] !== sX[at + k]) badNumber(rec, wideFields[2 * k], header[wideFields[2 * k]]);
+        if (sY[at + k] !== sY[at + k]) badNumber(rec, wideFields[2 * k + 1], header[wideFields[2 * k + 1]]);
       }
     }
   };
