@@ -9,7 +9,7 @@ import type { Anchor, ClockFit, ClockSegment, EventLog, PeriodId, ProposedCorrec
 import { detectRestarts, type RestartAnchor, type RestartOptions } from './anchors/restarts.ts';
 import { eventAnchors } from './anchors/events.ts';
 import { alignRestarts, type AlignOptions, type CoarseMatch } from './align/coarse.ts';
-import { fitClocks, type ClockFitOptions, type ClockPair } from './fit/clock.ts';
+import { DEFAULT_DRIFT_PRIOR, fitClocks, type ClockFitOptions, type ClockPair } from './fit/clock.ts';
 import { buildScenes, refineEvents } from './refine/refine.ts';
 
 export interface SyncOptions {
@@ -64,7 +64,9 @@ export function syncMatch(tracking: TrackingData, events: EventLog, opts: SyncOp
     // Periods with too few placed events keep the restart-based fit.
     for (const seg of fit.segments) if ((pairs.get(seg.period)?.length ?? 0) < 10) pairs.delete(seg.period);
     if (pairs.size === 0) break;
-    const refit = fitClocks(pairs, 'events', { minScale: 0.05, ...opts.fit });
+    // Free rate, held near nominal by the weak drift prior (±300 ppm): on a few minutes
+    // of jittery tags the data alone leave it uncertain by thousands of ppm.
+    const refit = fitClocks(pairs, 'events', { minScale: 0.05, driftPrior: DEFAULT_DRIFT_PRIOR, ...opts.fit });
     fit = { ...fit, segments: [...fit.segments.filter((s) => !pairs.has(s.period)), ...refit.segments].sort((a, b) => a.period - b.period || a.fromT - b.fromT) };
     corrections = refineEvents(tracking, events, fit, scenes);
   }

@@ -5,7 +5,21 @@
  * into segments.
  */
 import type { AnchorKind, ClockFit, ClockSegment, FitPoint, PeriodId, Seconds } from '../../shared-types/domain.ts';
-import { huberFit, mad, median } from './robust.ts';
+import { huberFit, mad, median, type SlopePrior } from './robust.ts';
+
+/** A Gaussian prior on a clock's drift, parts per million. */
+export interface DriftPrior {
+  centrePpm: number;
+  sdPpm: number;
+}
+
+/**
+ * Default drift prior: centred on 0 with 300 ppm scale — real clocks of these sources
+ * drift tens of ppm, at most about ±300 ppm (common practice). Weak: with many anchors
+ * over a half the data outweigh it; on a few minutes of jittery tags it keeps the rate
+ * from swinging by thousands of ppm.
+ */
+export const DEFAULT_DRIFT_PRIOR: DriftPrior = { centrePpm: 0, sdPpm: 300 };
 
 /** One pairing to fit: source time t corresponds to tracking time tRef. */
 export interface ClockPair {
@@ -32,6 +46,18 @@ export interface ClockFitOptions {
    * restarts, where the rate would be far less certain than real clocks drift (±300 ppm).
    */
   fixedRate?: number;
+  /**
+   * Gaussian prior on the drift, making the fit a penalised (MAP) Huber IRLS with standard
+   * errors from the penalised normal equations. Default DEFAULT_DRIFT_PRIOR; `null` gives
+   * the unpenalised fit.
+   */
+  driftPrior?: DriftPrior | null;
+}
+
+/** The drift prior as a prior on the rate (slope), or undefined for none. */
+function ratePrior(opts: ClockFitOptions): SlopePrior | undefined {
+  const p = opts.driftPrior === undefined ? DEFAULT_DRIFT_PRIOR : opts.driftPrior;
+  return p ? { mean: 1 + p.centrePpm * 1e-6, sd: p.sdPpm * 1e-6 } : undefined;
 }
 
 const ROBUST = 1.4826;
@@ -55,12 +81,14 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
   }
   if (opts.fixedRate !== undefined) return fitOffsetOnly(sorted, period, opts.fixedRate, minScale, madLimit);
   // First pass: robust fit on everything, then flag MAD outliers and refit without them.
-  const first = huberFit(ts, refs, { minScale });
+  // Both passes carry the drift prior, so an ill-determined rate cannot mis-flag points.
+  const slopePrior = ratePrior(opts);
+  const first = huberFit(ts, refs, { minScale, slopePrior });
   const res = first.residuals;
   const m = median(res);
   const s = Math.max(minScale, ROBUST * mad(res));
   const mask = sorted.map((p, i) => (Math.abs(res[i] - m) > madLimit * s ? 0 : (p.weight ?? 1)));
-  const fit = huberFit(ts, refs, { minScale, mask });
+  const fit = huberFit(ts, refs, { minScale, mask, slopePrior });
   const points = sorted.map((p, i) => {
     const fp = point(p, fit.residuals[i], mask[i] > 0);
     if (!fp.used) fp.rejectedBecause = `MAD outlier: residual ${fit.residuals[i].toFixed(2)} s is beyond ${madLimit} robust SD (${s.toFixed(3)} s)`;
@@ -74,7 +102,7 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
     }
   const w = Float64Array.from(fit.weights, (v, i) => v * (mask[i] > 0 ? sorted[i].weight ?? 1 : 0));
   return segment(period, ts[0], ts[n - 1], fit.intercept, fit.slope, fit.interceptSe, fit.slopeSe, points,
-    Math.sqrt(ss / Math.max(1, used)), leaveOneOutMax(ts, refs, w));
+    Math.sqrt(ss / Math.max(1, used)), leaveOneOutMax(ts, refs, w, fit.priorWeight, slopePrior?.mean ?? 1));
 }
 
 /** Offset at a fixed rate: median of tRef - rate t, MAD outliers out, mean of the rest. */
@@ -107,17 +135,20 @@ function segment(period: PeriodId, fromT: number, toT: number, offset: number, r
 }
 
 /**
- * Largest change of the offset when one point is dropped, holding the final weights:
- * the weighted sums lose one term each, so all n refits cost O(n).
+ * Largest change of the offset when one point is dropped, holding the final weights (and
+ * the prior's pseudo-observation of weight `ridge` on the rate, if any): the weighted sums
+ * lose one term each, so all n refits cost O(n).
  */
-function leaveOneOutMax(xs: number[], ys: number[], w: ArrayLike<number>): number {
+function leaveOneOutMax(xs: number[], ys: number[], w: ArrayLike<number>, ridge = 0, rate0 = 1): number {
   let S = 0, Sx = 0, Sy = 0, Sxx = 0, Sxy = 0;
   const x0 = xs.reduce((a, b) => a + b, 0) / xs.length; // centring for conditioning
   for (let i = 0; i < xs.length; i++) {
     const x = xs[i] - x0;
     S += w[i]; Sx += w[i] * x; Sy += w[i] * ys[i]; Sxx += w[i] * x * x; Sxy += w[i] * x * ys[i];
   }
-  const offsetOf = (s: number, sx: number, sy: number, sxx: number, sxy: number) => {
+  // Normal equations [[S, Sx], [Sx, Sxx + λ]] [a, b] = [Sy, Sxy + λ b0] (x centred at x0).
+  const offsetOf = (s: number, sx: number, sy: number, sxx0: number, sxy0: number) => {
+    const sxx = sxx0 + ridge, sxy = sxy0 + ridge * rate0;
     const det = s * sxx - sx * sx;
     if (det <= 1e-12 * s * sxx) return NaN;
     const b = (s * sxy - sx * sy) / det;

@@ -17,6 +17,18 @@ export interface LineFit {
   residuals: Float64Array;
   /** Robust scale of the residuals (1.4826 * MAD). */
   scale: number;
+  /**
+   * Weight λ of the slope pseudo-observation (0 without a prior): the fit minimised
+   * Σ w r² + λ (slope - prior mean)², and the standard errors come from those penalised
+   * normal equations, Cov = σ² (XᵀWX + λ·e₂e₂ᵀ)⁻¹.
+   */
+  priorWeight: number;
+}
+
+/** A Gaussian prior on the slope: mean and standard deviation (same units as the slope). */
+export interface SlopePrior {
+  mean: number;
+  sd: number;
 }
 
 /** `median([3, 1, 2]) -> 2` (NaN for an empty list). */
@@ -61,10 +73,20 @@ export interface HuberOptions {
   iterations?: number;
   /** Points with weight 0 take no part (e.g. rejected outliers). */
   mask?: ArrayLike<number>;
+  /**
+   * Optional Gaussian prior on the slope (MAP fit). In units of the noise it is one extra
+   * observation "slope = mean" of weight λ = scale² / sd², scale being the robust residual
+   * scale the Huber weights use. Absent: the plain (unpenalised) Huber fit.
+   */
+  slopePrior?: SlopePrior;
 }
 
-/** Weighted least squares line with weights w; x is centred for conditioning. */
-export function weightedLine(xs: ArrayLike<number>, ys: ArrayLike<number>, w: ArrayLike<number>) {
+/**
+ * Weighted least squares line with weights w; x is centred for conditioning. With
+ * `ridge` > 0 the slope is pulled toward `slope0` by one pseudo-observation of that weight:
+ * in centred x the normal equations stay diagonal, so slope = (Sxy + λ b0) / (Sxx + λ).
+ */
+export function weightedLine(xs: ArrayLike<number>, ys: ArrayLike<number>, w: ArrayLike<number>, ridge = 0, slope0 = 0) {
   let sw = 0, sx = 0, sy = 0;
   for (let i = 0; i < xs.length; i++) {
     sw += w[i];
@@ -79,7 +101,7 @@ export function weightedLine(xs: ArrayLike<number>, ys: ArrayLike<number>, w: Ar
     sxx += w[i] * dx * dx;
     sxy += w[i] * dx * (ys[i] - my);
   }
-  const slope = sxx > 0 ? sxy / sxx : 0;
+  const slope = sxx + ridge > 0 ? (sxy + ridge * slope0) / (sxx + ridge) : 0;
   return { slope, intercept: my - slope * mx, mx, sw, sxx };
 }
 
@@ -99,13 +121,17 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
   const w = new Float64Array(n);
   const r = new Float64Array(n);
   let scale = minScale;
+  const prior = opts.slopePrior;
+  let lambda = 0;
   for (let it = 0; it < (opts.iterations ?? 30); it++) {
     for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
     // The scale is re-estimated on the first iterations only, then held (it settles fast;
     // each estimate costs two sorts).
     if (it < 3) scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => r[i])));
+    // Prior weight in the units of the weighted squares: (noise scale / prior sd)².
+    if (prior) lambda = (scale / prior.sd) ** 2;
     for (let i = 0; i < n; i++) w[i] = mask[i] > 0 ? Math.min(1, (k * scale) / Math.max(Math.abs(r[i]), 1e-300)) : 0;
-    const fit = weightedLine(xs, ys, w);
+    const fit = weightedLine(xs, ys, w, lambda, prior?.mean ?? 0);
     const moved = Math.abs(fit.intercept - a) + Math.abs(fit.slope - b) * (Math.abs(fit.mx) + 1);
     a = fit.intercept;
     b = fit.slope;
@@ -118,7 +144,8 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
   for (const i of idx) ss += w[i] * r[i] * r[i];
   const used = idx.length;
   const sigma2 = used > 2 ? ss / ((sw * (used - 2)) / used) : NaN;
-  const slopeSe = Math.sqrt(sigma2 / sxx);
-  const interceptSe = Math.sqrt(sigma2 * (1 / sw + (mx * mx) / sxx));
-  return { intercept: a, slope: b, interceptSe, slopeSe, weights: w, residuals: r, scale };
+  // Penalised normal equations (centred x): diag(Σw, Sxx + λ); λ = 0 is the plain fit.
+  const slopeSe = Math.sqrt(sigma2 / (sxx + lambda));
+  const interceptSe = Math.sqrt(sigma2 * (1 / sw + (mx * mx) / (sxx + lambda)));
+  return { intercept: a, slope: b, interceptSe, slopeSe, weights: w, residuals: r, scale, priorWeight: lambda };
 }
