@@ -14,7 +14,7 @@
  *
  * The record object is reused between callbacks: read what you need inside the callback.
  */
-import { parseNumberRange } from './numbers.ts';
+import { parseNumberRange, POW10 } from './numbers.ts';
 
 export interface CsvRecord {
   /** 1-based line where the record starts. */
@@ -48,6 +48,9 @@ class RecordView implements CsvRecord {
   lineEnd = 0;
   starts = new Int32Array(64);
   ends = new Int32Array(64);
+  /** Fast mode: numbers already read while splitting (known[i] = 1); the rest are read on demand. */
+  numbers = new Float64Array(64);
+  known = new Uint8Array(64);
   values: string[] | null = null;
   rawText = '';
 
@@ -62,7 +65,7 @@ class RecordView implements CsvRecord {
       const v = this.values[i];
       return parseNumberRange(v, 0, v.length);
     }
-    return parseNumberRange(this.src, this.starts[i], this.ends[i]);
+    return this.known[i] ? this.numbers[i] : parseNumberRange(this.src, this.starts[i], this.ends[i]);
   }
   nums(fields: Int32Array, out: Float64Array): void {
     if (this.values) {
@@ -73,9 +76,11 @@ class RecordView implements CsvRecord {
     const starts = this.starts;
     const ends = this.ends;
     const count = this.count;
+    const known = this.known;
+    const numbers = this.numbers;
     for (let k = 0; k < fields.length; k++) {
       const i = fields[k];
-      out[k] = i >= 0 && i < count ? parseNumberRange(src, starts[i], ends[i]) : NaN;
+      out[k] = i >= 0 && i < count ? (known[i] ? numbers[i] : parseNumberRange(src, starts[i], ends[i])) : NaN;
     }
   }
   numsXY(fields: Int32Array, xs: Float32Array, ys: Float32Array, at: number): void {
@@ -91,11 +96,13 @@ class RecordView implements CsvRecord {
     const starts = this.starts;
     const ends = this.ends;
     const count = this.count;
+    const known = this.known;
+    const numbers = this.numbers;
     for (let k = 0; k < pairs; k++) {
       const i = fields[2 * k];
       const j = fields[2 * k + 1];
-      xs[at + k] = i >= 0 && i < count ? parseNumberRange(src, starts[i], ends[i]) : NaN;
-      ys[at + k] = j >= 0 && j < count ? parseNumberRange(src, starts[j], ends[j]) : NaN;
+      xs[at + k] = i >= 0 && i < count ? (known[i] ? numbers[i] : parseNumberRange(src, starts[i], ends[i])) : NaN;
+      ys[at + k] = j >= 0 && j < count ? (known[j] ? numbers[j] : parseNumberRange(src, starts[j], ends[j])) : NaN;
     }
   }
   text(): string {
@@ -108,6 +115,10 @@ class RecordView implements CsvRecord {
     const e = new Int32Array(this.ends.length * 2);
     e.set(this.ends);
     this.ends = e;
+    const v = new Float64Array(this.numbers.length * 2);
+    v.set(this.numbers);
+    this.numbers = v;
+    this.known = new Uint8Array(this.known.length * 2);
   }
 }
 
@@ -120,6 +131,8 @@ export class CsvTokenizer {
   private pos = 0;
   private nextQuote = -1;
   private final = false;
+  /** Numbers are read while splitting, unless the delimiter could be part of a number ('-', '.', digits). */
+  private readonly fused: boolean;
 
   /**
    * Pull use (fast, no callback in the hot loop): feed(chunk), then next() until null;
@@ -132,6 +145,8 @@ export class CsvTokenizer {
   ) {
     if (delimiter.length !== 1) throw new Error(`delimiter must be one character, got "${delimiter}"`);
     this.delimCode = delimiter.charCodeAt(0);
+    const d = this.delimCode;
+    this.fused = !(d === 45 || d === 46 || (d >= 48 && d <= 57));
   }
 
   feed(chunk: string): void {
@@ -203,30 +218,96 @@ export class CsvTokenizer {
     rec.lineStart = start;
     rec.lineEnd = end;
     rec.line = line;
+    rec.count = this.fused ? this.splitReadingNumbers(buf, start, end) : this.split(buf, start, end);
+  }
+
+  /** Field ranges of buf[start, end) by indexOf; numbers are read on demand. */
+  private split(buf: string, start: number, end: number): number {
+    const rec = this.rec;
     let count = 0;
     let p = start;
     const d = this.delimiter;
+    for (;;) {
+      if (count === rec.starts.length) rec.grow();
+      rec.known[count] = 0;
+      const q = buf.indexOf(d, p);
+      if (q === -1 || q >= end) {
+        rec.starts[count] = p;
+        rec.ends[count] = end;
+        return count + 1;
+      }
+      rec.starts[count] = p;
+      rec.ends[count] = q;
+      count++;
+      p = q + 1;
+    }
+  }
+
+  /**
+   * Field ranges of buf[start, end), reading each field as a plain decimal while looking
+   * for its end, so numeric rows are read once instead of twice (indexOf, then the digits).
+   * The value is the one parseNumberRange gives on its fast path (same digits, same
+   * arithmetic); fields that are not plain decimals are left to parseNumberRange on demand.
+   */
+  private splitReadingNumbers(buf: string, start: number, end: number): number {
+    const rec = this.rec;
+    const d = this.delimCode;
     let starts = rec.starts;
     let ends = rec.ends;
+    let numbers = rec.numbers;
+    let known = rec.known;
+    let count = 0;
+    let p = start;
     for (;;) {
       if (count === starts.length) {
         rec.grow();
         starts = rec.starts;
         ends = rec.ends;
-      }
-      const q = buf.indexOf(d, p);
-      if (q === -1 || q >= end) {
-        starts[count] = p;
-        ends[count] = end;
-        count++;
-        break;
+        numbers = rec.numbers;
+        known = rec.known;
       }
       starts[count] = p;
+      let i = p;
+      let c = i < end ? buf.charCodeAt(i) : -1;
+      const neg = c === 45; /* - */
+      if (neg) c = ++i < end ? buf.charCodeAt(i) : -1;
+      let mantissa = 0;
+      let digits = 0;
+      while (c >= 48 && c <= 57) {
+        mantissa = mantissa * 10 + (c - 48);
+        digits++;
+        c = ++i < end ? buf.charCodeAt(i) : -1;
+      }
+      let fracDigits = 0;
+      if (c === 46 /* . */) {
+        c = ++i < end ? buf.charCodeAt(i) : -1;
+        while (c >= 48 && c <= 57) {
+          mantissa = mantissa * 10 + (c - 48);
+          fracDigits++;
+          c = ++i < end ? buf.charCodeAt(i) : -1;
+        }
+      }
+      if ((c === d || i >= end) && digits + fracDigits > 0 && digits + fracDigits <= 15) {
+        const v = fracDigits === 0 ? mantissa : mantissa / POW10[fracDigits];
+        numbers[count] = neg ? -v : v;
+        known[count] = 1;
+        ends[count] = i;
+        count++;
+        if (i >= end) return count;
+        p = i + 1;
+        continue;
+      }
+      // Not a plain decimal: find the field's end; the number (if any) is read on demand.
+      known[count] = 0;
+      const q = i >= end ? -1 : buf.indexOf(this.delimiter, i);
+      if (q === -1 || q >= end) {
+        ends[count] = end;
+        return count + 1;
+      }
       ends[count] = q;
       count++;
       p = q + 1;
     }
-    rec.count = count;
   }
 
   /**

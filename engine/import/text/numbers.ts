@@ -11,7 +11,8 @@ export function isMissingToken(s: string): boolean {
   return MISSING_TOKENS.has(s.trim().toLowerCase());
 }
 
-const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+/** Powers of ten for the fraction digits of the fast path (shared with the tokenizer's fused path). */
+export const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 
 /**
  * Parses text[start, end) as a decimal number. Returns NaN when the range is not a plain
