@@ -88,6 +88,25 @@ export class FrameStore {
   }
 
   /**
+   * Grows the sample arrays once to hold `n` samples in all (an estimate from the file
+   * size), instead of doubling (and copying) them many times while a big file streams in.
+   */
+  expectSamples(n: number): void {
+    if (n <= this.sampleX.length) return;
+    const k = this.sampleCount;
+    const grow = <T extends Int32Array | Int16Array | Float32Array>(a: T, make: (len: number) => T): T => {
+      const b = make(n);
+      b.set(a.subarray(0, k));
+      return b;
+    };
+    this.sampleEntry = grow(this.sampleEntry, (len) => new Int32Array(len));
+    this.sampleObject = grow(this.sampleObject, (len) => new Int16Array(len));
+    this.sampleX = grow(this.sampleX, (len) => new Float32Array(len));
+    this.sampleY = grow(this.sampleY, (len) => new Float32Array(len));
+    this.sampleZ = grow(this.sampleZ, (len) => new Float32Array(len));
+  }
+
+  /**
    * Room for `n` more samples, counted as taken: the caller writes slots [start, start + n)
    * of the sample arrays itself (wide rows fill a whole row of objects at once, without a
    * call per sample). Read the arrays after this call: growing replaces them.

@@ -17,7 +17,7 @@ export async function importTracking(chunks: AsyncIterable<string>, opts: Import
   const store = new FrameStore();
   const progress = new ProgressCounter(opts.bytesTotal ?? 0, opts.onProgress);
   throwIfAborted(opts.signal);
-  const parser = opts.mapping.layout === 'jsonl' ? trackingJsonlParser(opts.mapping, store, log) : trackingCsvParser(opts.mapping, store, log);
+  const parser = opts.mapping.layout === 'jsonl' ? trackingJsonlParser(opts.mapping, store, log) : trackingCsvParser(opts.mapping, store, log, opts.bytesTotal);
   let firstChunk = true;
   for await (let chunk of chunks) {
     throwIfAborted(opts.signal);

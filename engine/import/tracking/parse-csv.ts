@@ -31,7 +31,11 @@ interface Cols {
   wide: { obj: number; x: number; y: number; z: number }[];
 }
 
-export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, log: ProblemLog): ChunkParser {
+/** At most this many samples are reserved from a size estimate (about 2.5 full matches of 23 objects at 25 Hz). */
+const MAX_EXPECTED_SAMPLES = 8_000_000;
+
+/** bytesTotal (optional): the file size, to size the sample arrays once after the first chunk. */
+export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, log: ProblemLog, bytesTotal = 0): ChunkParser {
   let cols: Cols | null = null;
   let failed = false;
   let rows = 0;
@@ -173,16 +177,21 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       const n = c.wide.length;
       const at = store.reserveSamples(n);
       rec.numsXY(wideFields, store.sampleX, store.sampleY, at);
-      store.sampleEntry.fill(entry, at, at + n);
-      store.sampleObject.set(wideObjects, at);
-      store.sampleZ.fill(NaN, at, at + n);
-      for (let b = 0; b < wideZSlots.length; b++) store.sampleZ[at + wideZSlots[b]] = rec.num(c.z);
+      const sE = store.sampleEntry;
+      const sO = store.sampleObject;
       const sX = store.sampleX;
       const sY = store.sampleY;
+      const sZ = store.sampleZ;
+      // A plain loop: typed-array fill/set calls cost more than they save on 23 slots.
       for (let k = 0; k < n; k++) {
-        if (sX[at + k] !== sX[at + k]) badNumber(rec, wideFields[2 * k], header[wideFields[2 * k]]);
-        if (sY[at + k] !== sY[at + k]) badNumber(rec, wideFields[2 * k + 1], header[wideFields[2 * k + 1]]);
+        const j = at + k;
+        sE[j] = entry;
+        sO[j] = wideObjects[k];
+        sZ[j] = NaN;
+        if (sX[j] !== sX[j]) badNumber(rec, wideFields[2 * k], header[wideFields[2 * k]]);
+        if (sY[j] !== sY[j]) badNumber(rec, wideFields[2 * k + 1], header[wideFields[2 * k + 1]]);
       }
+      for (let b = 0; b < wideZSlots.length; b++) sZ[at + wideZSlots[b]] = rec.num(c.z);
     }
   };
 
@@ -228,10 +237,21 @@ export function trackingCsvParser(mapping: TrackingMapping, store: FrameStore, l
       else if (!failed) onRow(rec);
     }
   };
+  let charsSeen = 0;
+  let sized = false;
+  /** Once 64 KB are in: samples per character so far, times the file size (5 % spare). */
+  const sizeFromFirstChunk = (): void => {
+    sized = true;
+    if (bytesTotal <= charsSeen) return;
+    const expected = Math.ceil((store.sampleCount / charsSeen) * bytesTotal * 1.05);
+    store.expectSamples(Math.min(expected, MAX_EXPECTED_SAMPLES));
+  };
   return {
     push: (chunk) => {
       tokenizer.feed(chunk);
       drain();
+      charsSeen += chunk.length;
+      if (!sized && charsSeen >= 65536 && store.sampleCount > 0) sizeFromFirstChunk();
     },
     end: () => {
       tokenizer.finish();
