@@ -131,7 +131,7 @@ export class CsvTokenizer {
   private pos = 0;
   private nextQuote = -1;
   private final = false;
-  /** Numbers are read while splitting, unless the delimiter could be part of a number ('-', '.', digits). */
+  /** Numbers are read while splitting, unless the delimiter could be part of a number ('-', '.', digits) or a line end. */
   private readonly fused: boolean;
 
   /**
@@ -146,7 +146,7 @@ export class CsvTokenizer {
     if (delimiter.length !== 1) throw new Error(`delimiter must be one character, got "${delimiter}"`);
     this.delimCode = delimiter.charCodeAt(0);
     const d = this.delimCode;
-    this.fused = !(d === 45 || d === 46 || (d >= 48 && d <= 57));
+    this.fused = !(d === 45 || d === 46 || (d >= 48 && d <= 57) || d === 10 || d === 13);
   }
 
   feed(chunk: string): void {
@@ -248,6 +248,8 @@ export class CsvTokenizer {
    * for its end, so numeric rows are read once instead of twice (indexOf, then the digits).
    * The value is the one parseNumberRange gives on its fast path (same digits, same
    * arithmetic); fields that are not plain decimals are left to parseNumberRange on demand.
+   * No bounds check per character: buf[end] is a line end ('\n', '\r') or past the text
+   * (NaN), which stops every digit loop, so i never passes end.
    */
   private splitReadingNumbers(buf: string, start: number, end: number): number {
     const rec = this.rec;
@@ -268,23 +270,23 @@ export class CsvTokenizer {
       }
       starts[count] = p;
       let i = p;
-      let c = i < end ? buf.charCodeAt(i) : -1;
+      let c = buf.charCodeAt(i);
       const neg = c === 45; /* - */
-      if (neg) c = ++i < end ? buf.charCodeAt(i) : -1;
+      if (neg) c = buf.charCodeAt(++i);
       let mantissa = 0;
       let digits = 0;
       while (c >= 48 && c <= 57) {
         mantissa = mantissa * 10 + (c - 48);
         digits++;
-        c = ++i < end ? buf.charCodeAt(i) : -1;
+        c = buf.charCodeAt(++i);
       }
       let fracDigits = 0;
       if (c === 46 /* . */) {
-        c = ++i < end ? buf.charCodeAt(i) : -1;
+        c = buf.charCodeAt(++i);
         while (c >= 48 && c <= 57) {
           mantissa = mantissa * 10 + (c - 48);
           fracDigits++;
-          c = ++i < end ? buf.charCodeAt(i) : -1;
+          c = buf.charCodeAt(++i);
         }
       }
       if ((c === d || i >= end) && digits + fracDigits > 0 && digits + fracDigits <= 15) {
