@@ -2,13 +2,14 @@
  * Streaming CSV/TSV tokenizer: feed it text chunks, pull records (or have them pushed).
  *
  * Our own tokenizer rather than papaparse, because it is measurably faster at what the
- * importer needs: rows without quotes are split with indexOf and their numbers are read
- * straight from the chunk text (no substring per field). bench/import.bench.ts on a
+ * importer needs: rows without quotes are split in one pass that also reads plain decimals
+ * (no substring per field, no second look at the digits). bench/import.bench.ts on a
  * full-length simulated match (fixtures/sim, 2 x 47-49 min, 25 Hz, 23 objects), CPU time,
- * 2026-12-02 on the shared 2-core machine: tokenizer + numbers 2.25x papaparse's string
- * parse on wide CSV (43 MB) and 2.75x on long CSV (144 MB); 7.2-7.7x papaparse with
- * dynamicTyping (which, like us, makes numbers). The whole import (parse + normalise) was
- * 0.92x / 2.22x papaparse's string parse and 3.2x / 5.8x its number parse.
+ * 2026-12-02 on the shared 2-core machine: tokenizer + numbers 2.7-3.0x papaparse's string
+ * parse on wide CSV (43 MB) and 2.6x on long CSV (144 MB); 9-10x papaparse with
+ * dynamicTyping (which, like us, makes numbers). The whole import (parse + normalise) is
+ * 1.2x / 2.4x papaparse's string parse and 3.9-4.2x / 7.9-8.9x its number parse (before
+ * the one-pass split and direct slot writes: 0.83x / 2.2x and 3.1x / 5.8x).
  * Quoted fields (RFC 4180: "" escapes a quote, delimiters and newlines inside quotes) take
  * a slower exact path, so they still work.
  *
