@@ -16,7 +16,8 @@ import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type CDPSession, type Page } from 'playwright-core';
+import { type CDPSession, type Page } from 'playwright-core';
+import { launchLocalChromium } from './local-chromium.ts';
 import { build } from 'vite';
 import type { TrackingMapping } from '../shared-types/import.ts';
 import { detectSource } from '../engine/import/index.ts';
@@ -105,12 +106,7 @@ async function main(): Promise<void> {
     });
     await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
     const home = join(dir, 'home');
-    const browser = await chromium.launch({
-      executablePath: '/usr/bin/chromium',
-      headless: true,
-      args: ['--no-sandbox', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1'],
-      env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, '.config'), XDG_CACHE_HOME: join(home, '.cache') },
-    });
+    const browser = await launchLocalChromium(home);
     try {
       const page = await browser.newPage();
       await page.goto(`http://127.0.0.1:${(server.address() as AddressInfo).port}/`);
