@@ -7,12 +7,10 @@
  * timing.
  */
 import 'fake-indexeddb/auto';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { launchLocalChromium } from './local-chromium.ts';
+import { launchLocalChromium, serveFolder } from '../build/local-chromium.ts';
 import { build } from 'vite';
 import type { BrowserBenchResult } from './db-browser-entry.ts';
 import Dexie from 'dexie';
@@ -106,22 +104,12 @@ async function inChromium() {
     build: { outDir: dir, emptyOutDir: false, minify: false, lib: { entry: new URL('./db-browser-entry.ts', import.meta.url).pathname, formats: ['es'], fileName: () => 'bench.js' } },
   });
   writeFileSync(join(dir, 'index.html'), '<!doctype html><meta charset="utf-8"><script type="module">import { runBrowserBench } from "./bench.js"; window.runBrowserBench = runBrowserBench;</script>');
-  const server = createServer((req, res) => {
-    const name = req.url === '/' ? 'index.html' : (req.url ?? '').slice(1);
-    if (!/^[\w.-]+$/.test(name)) return res.writeHead(404).end();
-    try {
-      const body = readFileSync(join(dir, name));
-      res.writeHead(200, { 'content-type': name.endsWith('.js') ? 'text/javascript' : 'text/html' }).end(body);
-    } catch {
-      res.writeHead(404).end();
-    }
-  });
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const { server, url } = await serveFolder(dir);
   const home = join(dir, 'home');
   const browser = await launchLocalChromium(home);
   try {
     const page = await browser.newPage();
-    await page.goto(`http://127.0.0.1:${(server.address() as AddressInfo).port}/`);
+    await page.goto(url);
     await page.waitForFunction(() => 'runBrowserBench' in window);
     const r = await page.evaluate(
       ([f, o]) => (window as unknown as { runBrowserBench: (f: number, o: number) => Promise<BrowserBenchResult> }).runBrowserBench(f, o),

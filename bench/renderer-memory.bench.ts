@@ -12,12 +12,10 @@
  * Run: npx tsx bench/renderer-memory.bench.ts   (WM_BENCH_GENERATOR=own: the small generator)
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type CDPSession, type Page } from 'playwright-core';
-import { launchLocalChromium } from './local-chromium.ts';
+import { launchLocalChromium, serveFolder, type ServedFolder } from '../build/local-chromium.ts';
 import { build } from 'vite';
 import type { TrackingMapping } from '../shared-types/import.ts';
 import { detectSource } from '../engine/import/index.ts';
@@ -82,7 +80,7 @@ async function main(): Promise<void> {
   console.log(`wide CSV from ${source}: ${(body.length / 1e6).toFixed(1)} MB, generated in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
   const dir = mkdtempSync(join(tmpdir(), 'wm-mem-bench-'));
-  const server = createServer();
+  let served: ServedFolder | undefined;
   try {
     await build({
       configFile: false,
@@ -92,24 +90,12 @@ async function main(): Promise<void> {
     writeFileSync(join(dir, 'index.html'), '<!doctype html><meta charset="utf-8"><script type="module">import * as wm from "./bench.js"; window.wm = wm;</script>');
     // Cross-origin isolation (COOP + COEP) so measureUserAgentSpecificMemory is offered.
     const isolation = { 'cross-origin-opener-policy': 'same-origin', 'cross-origin-embedder-policy': 'require-corp' };
-    server.on('request', (req, res) => {
-      if (req.url === '/match-wide.csv') return res.writeHead(200, { 'content-type': 'text/csv', 'content-length': body.length, ...isolation }).end(body);
-      const name = req.url === '/' ? 'index.html' : (req.url ?? '').slice(1);
-      if (!/^[\w.-]+$/.test(name)) return res.writeHead(404).end();
-      let file: Buffer;
-      try {
-        file = readFileSync(join(dir, name));
-      } catch {
-        return res.writeHead(404).end();
-      }
-      res.writeHead(200, { 'content-type': name.endsWith('.js') ? 'text/javascript' : 'text/html', ...isolation }).end(file);
-    });
-    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    served = await serveFolder(dir, { headers: isolation, routes: { '/match-wide.csv': { type: 'text/csv', body } } });
     const home = join(dir, 'home');
     const browser = await launchLocalChromium(home);
     try {
       const page = await browser.newPage();
-      await page.goto(`http://127.0.0.1:${(server.address() as AddressInfo).port}/`);
+      await page.goto(served.url);
       await page.waitForFunction(() => 'wm' in window);
       const cdp = await page.context().newCDPSession(page);
       await cdp.send('Performance.enable');
@@ -153,7 +139,7 @@ async function main(): Promise<void> {
       await browser.close();
     }
   } finally {
-    server.close();
+    served?.server.close();
     rmSync(dir, { recursive: true, force: true });
   }
 }

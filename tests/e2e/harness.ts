@@ -12,6 +12,7 @@ import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH, chromiumEnv } from '../../build/local-chromium.ts';
 import { startBrowserHost } from '../../electron/serve.ts';
 import { standinEventsCsv, standinTrackingCsv } from '../unit/renderer/standins.ts';
 
@@ -37,16 +38,6 @@ function demoDir(): string {
 export const DEMO_DIR = demoDir();
 export const SHOTS = join(ROOT, 'test-results');
 
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  // Outside host names resolve to nothing: the app must never need the network.
-  '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
-];
 
 export interface RunningApp {
   page: Page;
@@ -72,12 +63,11 @@ export async function startApp(): Promise<RunningApp> {
 
   const launch = async () => {
     const context = await chromium.launchPersistentContext(profileDir, {
-      executablePath: '/usr/bin/chromium',
+      executablePath: CHROMIUM_PATH,
       headless: true,
       args: CHROMIUM_ARGS,
       viewport: { width: 1440, height: 900 },
-      // Chromium writes caches and crash dumps under HOME even with a fresh profile.
-      env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, '.config'), XDG_CACHE_HOME: join(home, '.cache'), XDG_DATA_HOME: join(home, '.local/share') },
+      env: chromiumEnv(home),
     });
     const page = context.pages()[0] ?? (await context.newPage());
     page.on('request', (r) => {
