@@ -7,6 +7,7 @@ export { eventAnchors } from './anchors/events.ts';
 export { alignRestarts, alignAt, type AlignOptions, type CoarseMatch, type AnchorPair } from './align/coarse.ts';
 export { huberFit, theilSen, median, mad, type LineFit } from './fit/robust.ts';
 export { fitClock, fitClocks, findBreaks, mapTime, segmentAt, type ClockPair, type ClockFitOptions } from './fit/clock.ts';
+export { footageToTracking, trackingToFootage, type TrackingMoment } from './fit/footage-map.ts';
 export { ballTouches, type BallTouch } from './refine/kicks.ts';
 export { chooseMonotone, type EventOptions, type Option } from './refine/choose.ts';
 export { buildScenes, refineEvents, type PeriodScene } from './refine/refine.ts';

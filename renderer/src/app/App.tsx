@@ -1,10 +1,16 @@
 /** The app shell: project bar, screen rail, and the current screen. */
-import { useEffect, useState } from 'react';
+import { useCallback, useEffect, useState } from 'react';
 import { ProgressBar } from './ProgressBar.tsx';
 import { SourcesScreen } from '../sources/SourcesScreen.tsx';
+import { SyncScreen } from '../sync/SyncScreen.tsx';
+import { ReviewScreen } from '../review/ReviewScreen.tsx';
+import { WatchScreen } from '../watch/WatchScreen.tsx';
+import { ReelsScreen } from '../reels/ReelsScreen.tsx';
+import { isTypingTarget } from './keys.ts';
+import { useUndoKeys } from './useUndoKeys.ts';
 import { AppContext, type AppServices } from './context.ts';
 import { seedDemoOnFirstStart, type SeedStep } from './firstStart.ts';
-import { NavRail } from './NavRail.tsx';
+import { NavRail, screenForKey, type ScreenId } from './NavRail.tsx';
 import { ProjectBar } from './ProjectBar.tsx';
 import { useLive } from './useLive.ts';
 
@@ -19,20 +25,47 @@ export function App({ services }: { services: AppServices }) {
     seedDemoOnFirstStart(services, setSeed).catch((e) => setSeedError(`Setting up the demo match failed: ${(e as Error).message}`));
   }, [services]);
 
-  const ready = projects !== undefined && chosen !== undefined;
+  const screen = useLive(() => db.settings.get('screen').then((r) => (r?.value as ScreenId | undefined) ?? 'sources'), []);
+  const [status, setStatus] = useState('');
+  const report = useCallback((m: string) => setStatus(m), []);
+  const chooseScreen = useCallback((id: ScreenId) => void db.settings.put({ key: 'screen', value: id }), [db]);
+
+  const ready = projects !== undefined && chosen !== undefined && screen !== undefined;
   const current = projects?.find((p) => p.id === chosen) ?? projects?.[0];
   const seeding = !!seed && seed.some((s) => s.state === 'waiting' || s.state === 'running');
+  useUndoKeys(db, current?.id, services.info.userName, report);
+
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      const id = screenForKey(e);
+      if (!id || isTypingTarget(e.target)) return;
+      e.preventDefault();
+      chooseScreen(id);
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [chooseScreen]);
+  useEffect(() => {
+    if (!status) return;
+    const t = setTimeout(() => setStatus(''), 6000);
+    return () => clearTimeout(t);
+  }, [status]);
 
   return (
     <AppContext.Provider value={services}>
       <div className="shell">
         <ProjectBar projects={projects ?? []} currentId={current?.id} />
         <div className="shell-body">
-          <NavRail current="sources" />
+          <NavRail current={screen ?? 'sources'} onChoose={chooseScreen} />
           <main className="main" aria-busy={!ready || seeding}>
             {seedError && <p className="error-text" role="alert">{seedError}</p>}
             {seed && <SeedBanner steps={seed} onDismiss={seeding ? undefined : () => setSeed(null)} />}
-            {ready && current && <SourcesScreen key={current.id} projectId={current.id!} busyElsewhere={seeding} />}
+            {ready && current && screen === 'sources' && <SourcesScreen key={current.id} projectId={current.id!} busyElsewhere={seeding} />}
+            {ready && current && !seeding && screen === 'sync' && <SyncScreen key={current.id} projectId={current.id!} />}
+            {ready && current && !seeding && screen === 'review' && <ReviewScreen key={current.id} projectId={current.id!} />}
+            {ready && current && !seeding && screen === 'watch' && <WatchScreen key={current.id} projectId={current.id!} />}
+            {ready && current && !seeding && screen === 'reels' && <ReelsScreen key={current.id} projectId={current.id!} />}
+            {ready && current && seeding && screen !== 'sources' && <p className="muted">The demo match is still being imported…</p>}
             {ready && !current && (
               <div className="empty">
                 <p>No match project yet.</p>
@@ -41,6 +74,9 @@ export function App({ services }: { services: AppServices }) {
             )}
           </main>
         </div>
+        <p className="status-line" role="status" aria-live="polite">
+          {status}
+        </p>
       </div>
     </AppContext.Provider>
   );

@@ -1,28 +1,40 @@
-/** Screen navigation. Only Sources exists yet; the others say honestly that they come later. */
-export type ScreenId = 'sources';
+/** Screen navigation: Alt+1…5 from anywhere (shown beside each name). */
+export type ScreenId = 'sources' | 'sync' | 'review' | 'watch' | 'reels';
 
-const LATER = ['Sync', 'Review', 'Watch', 'Reels'];
+export const SCREENS: { id: ScreenId; name: string; key: string }[] = [
+  { id: 'sources', name: 'Sources', key: '1' },
+  { id: 'sync', name: 'Sync', key: '2' },
+  { id: 'review', name: 'Review', key: '3' },
+  { id: 'watch', name: 'Watch', key: '4' },
+  { id: 'reels', name: 'Reels', key: '5' },
+];
 
-export function NavRail({ current }: { current: ScreenId }) {
+export function NavRail({ current, onChoose }: { current: ScreenId; onChoose: (s: ScreenId) => void }) {
   return (
     <nav className="rail" aria-label="Screens">
       <ul>
-        <li>
-          <button type="button" className="rail-item" aria-current={current === 'sources' ? 'page' : undefined}>
-            <span className="rail-key" aria-hidden="true">▪</span> Sources
-          </button>
-        </li>
-        {LATER.map((name) => (
-          <li key={name}>
-            <button type="button" className="rail-item" disabled aria-describedby="rail-later">
-              <span className="rail-key" aria-hidden="true">·</span> {name}
+        {SCREENS.map((s) => (
+          <li key={s.id}>
+            <button
+              type="button"
+              className="rail-item"
+              aria-current={current === s.id ? 'page' : undefined}
+              aria-keyshortcuts={`Alt+${s.key}`}
+              title={`${s.name} (Alt+${s.key})`}
+              onClick={() => onChoose(s.id)}
+            >
+              <span className="rail-key" aria-hidden="true">{s.key}</span> {s.name}
             </button>
           </li>
         ))}
       </ul>
-      <p id="rail-later" className="rail-note">
-        Sync, Review, Watch and Reels come with a later release.
-      </p>
     </nav>
   );
+}
+
+/** The screen an Alt+digit press asks for, if any. */
+export function screenForKey(e: { altKey: boolean; ctrlKey: boolean; metaKey: boolean; key: string; code?: string }): ScreenId | undefined {
+  if (!e.altKey || e.ctrlKey || e.metaKey) return undefined;
+  const digit = e.code?.startsWith('Digit') ? e.code.slice(5) : e.key;
+  return SCREENS.find((s) => s.key === digit)?.id;
 }

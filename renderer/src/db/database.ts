@@ -12,7 +12,9 @@ import type {
   CorrectionRow,
   EventLogRow,
   EventRow,
+  ExportJobRow,
   FootageRow,
+  NonLiveRow,
   PitchRegistrationRow,
   ProjectRow,
   ReelRow,
@@ -56,6 +58,16 @@ export const SCHEMA_V2 = {
   events: '++id, sourceId, projectId, [sourceId+row], [projectId+kind]',
 } as const;
 
+/**
+ * Version 3: non-live footage intervals, the export queue, and undo order in the audit
+ * trail (undoable entries carry their row changes; see renderer/src/history/).
+ */
+export const SCHEMA_V3 = {
+  audit: '++id, projectId, at, [projectId+stamp]',
+  nonLive: '++id, projectId, footageSourceId',
+  exportJobs: '++id, projectId, state',
+} as const;
+
 export class WhistlemarkDb extends Dexie {
   projects!: EntityTable<ProjectRow, 'id'>;
   sources!: EntityTable<SourceRow, 'id'>;
@@ -71,6 +83,8 @@ export class WhistlemarkDb extends Dexie {
   pitchRegistrations!: EntityTable<PitchRegistrationRow, 'id'>;
   reels!: EntityTable<ReelRow, 'id'>;
   clips!: EntityTable<ClipRow, 'id'>;
+  nonLive!: EntityTable<NonLiveRow, 'id'>;
+  exportJobs!: EntityTable<ExportJobRow, 'id'>;
   mappings!: Table<RememberedMappingRow, string>;
   settings!: Table<SettingRow, string>;
 
@@ -88,6 +102,7 @@ export class WhistlemarkDb extends Dexie {
             if (row.current === undefined && row.logged) row.current = structuredClone(row.logged);
           });
       });
+    this.version(3).stores(SCHEMA_V3);
   }
 }
 

@@ -154,6 +154,12 @@ export interface AnchorRow {
   projectId: number;
   sourceId: number;
   anchor: Anchor;
+  /** Who made it: a detector, the analyst's key press, or an accepted proposal. */
+  origin?: 'detected' | 'analyst' | 'accepted';
+  /** Footage anchors: the row id of the tracking anchor it is paired with in the fit. */
+  pairedWith?: number;
+  /** Left out of the fit by the analyst (still shown). */
+  excluded?: boolean;
 }
 
 export interface ClockFitRow {
@@ -184,6 +190,60 @@ export interface AuditRow {
   what: string;
   before?: unknown;
   after?: unknown;
+  /** What kind of object changed (shown and filtered in the audit view). */
+  subject?: AuditSubject;
+  /** Undoable changes carry the rows they touched (see renderer/src/history/). */
+  changes?: RowChange[];
+  /** 'done' until undone; 'undone' can be redone; 'dropped' once a new change replaced the redo. */
+  state?: 'done' | 'undone' | 'dropped';
+  /** Order of undo: the moment it was last done or undone (ms, made unique). */
+  stamp?: number;
+}
+
+export type AuditSubject = 'project' | 'source' | 'event' | 'correction' | 'anchor' | 'fit' | 'nonLive' | 'registration' | 'reel' | 'clip' | 'undo';
+
+/** Tables whose rows the undo history may write. */
+export type HistoryTable = 'events' | 'corrections' | 'anchors' | 'clockFits' | 'nonLive' | 'pitchRegistrations' | 'reels' | 'clips';
+
+/** One row before and after a change; absent means the row did not exist. */
+export interface RowChange {
+  table: HistoryTable;
+  key: number;
+  before?: unknown;
+  after?: unknown;
+}
+
+/** A stretch of footage that does not show live play (replay, graphics, half-time, lead-in). */
+export interface NonLiveRow {
+  id?: number;
+  projectId: number;
+  footageSourceId: number;
+  /** Footage seconds, [fromT, toT). */
+  fromT: number;
+  toT: number;
+  kind: 'replay' | 'graphics' | 'half_time' | 'lead_in' | 'other';
+  /** Proposed from cut candidates until the analyst confirms it. */
+  status: 'proposed' | 'confirmed';
+  note?: string;
+}
+
+/** A queued or finished export (survives a restart so the queue can resume). */
+export interface ExportJobRow {
+  id?: number;
+  projectId: number;
+  reelId: number;
+  /** Clip ids in order; empty = the whole reel as one file. */
+  clipIds: number[];
+  state: 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
+  /** Where the analyst chose to write. */
+  directory: string;
+  path: 'embedded' | 'native';
+  /** 0..1 */
+  progress: number;
+  outputs: string[];
+  message?: string;
+  createdAt: number;
+  updatedAt: number;
 }
 
 export interface PitchRegistrationRow {

@@ -102,7 +102,7 @@ export async function storeSource(db: WhistlemarkDb, req: StoreSourceRequest): P
 
 /** Delete one source and everything derived from it, in one transaction. */
 export async function deleteSource(db: WhistlemarkDb, sourceId: number, user: string): Promise<void> {
-  const tables = ['sources', 'trackingMeta', 'trackingBlocks', 'eventLogs', 'events', 'footage', 'anchors', 'clockFits', 'corrections', 'audit', 'pitchRegistrations'];
+  const tables = ['sources', 'trackingMeta', 'trackingBlocks', 'eventLogs', 'events', 'footage', 'anchors', 'clockFits', 'corrections', 'audit', 'pitchRegistrations', 'nonLive'];
   await db.transaction('rw', tables.map((t) => db.table(t)), async () => {
     const src = await db.sources.get(sourceId);
     if (!src) return;
@@ -115,6 +115,7 @@ export async function deleteSource(db: WhistlemarkDb, sourceId: number, user: st
     await db.clockFits.where('sourceId').equals(sourceId).delete();
     await db.corrections.where('sourceId').equals(sourceId).delete();
     await db.pitchRegistrations.where('footageSourceId').equals(sourceId).delete();
+    await db.nonLive.where('footageSourceId').equals(sourceId).delete();
     await db.sources.delete(sourceId);
     await db.audit.add({ projectId: src.projectId, at: Date.now(), user, what: `delete ${src.kind} ${src.fileName}`, before: { sourceId, summary: src.summary } });
   });
@@ -130,7 +131,7 @@ export async function deleteProject(db: WhistlemarkDb, projectId: number): Promi
       await db.eventLogs.delete(id);
       await db.footage.delete(id);
     }
-    for (const t of ['sources', 'events', 'anchors', 'clockFits', 'corrections', 'audit', 'pitchRegistrations', 'reels', 'clips']) {
+    for (const t of ['sources', 'events', 'anchors', 'clockFits', 'corrections', 'audit', 'pitchRegistrations', 'reels', 'clips', 'nonLive', 'exportJobs']) {
       await db.table(t).where('projectId').equals(projectId).delete();
     }
     await db.projects.delete(projectId);

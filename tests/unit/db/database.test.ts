@@ -153,7 +153,7 @@ describe('schema migrations', () => {
 
     const db = openDb(name);
     await db.open();
-    expect(db.verno).toBe(2);
+    expect(db.verno).toBe(3);
     const [row] = await db.events.toArray();
     expect(row.current).toEqual(logged);
     expect(await db.events.where('[projectId+kind]').equals([1, 'goal_kick']).count()).toBe(1);
