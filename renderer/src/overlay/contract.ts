@@ -111,6 +111,12 @@ export interface OverlayScene {
   distancePair?: [string, string];
   /** Number of team lines for the `teamLines` layer (Jenks classes), default 3. */
   teamLineCount?: number;
+  /**
+   * Pitch markings as polylines (flat x,y pairs in metres). Always drawn in the pitch view;
+   * in the footage view only when `showMarkings` (registration check).
+   */
+  markings?: Float32Array[];
+  showMarkings?: boolean;
 }
 
 export interface OverlayRendererOptions {
