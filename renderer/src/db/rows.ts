@@ -272,6 +272,15 @@ export interface ClipRow {
   from: number;
   to: number;
   note?: string;
+  /** Shown on the title card and in the sidecars. */
+  title?: string;
+  /** Overlay layers burned into this clip (ids of overlay/contract.ts LAYER_IDS, both teams). */
+  layers?: string[];
+  /** Seconds added before the first and after the last event the clip was built from. */
+  preRoll?: number;
+  postRoll?: number;
+  /** Event ids (MatchEvent.id) the clip was built from; empty for in/out points. */
+  eventIds?: string[];
 }
 
 /** A mapping the analyst confirmed, offered again for a file with the same header. */
