@@ -1,0 +1,168 @@
+/**
+ * The embedded export path (nothing installed): one clip of the footage to an H.264 MP4 in
+ * the renderer with WebCodecs, muxed by mediabunny. Every frame is decoded and re-encoded
+ * (never cut on a keyframe): the file starts on the plan's in-frame and ends before its
+ * out-frame. The overlay is drawn by the Watch screen's own renderer (overlay/renderer.ts +
+ * buildOverlayScene) for each source frame's index and time, then laid over the picture
+ * with the caption (match clock) and, for the first seconds, the clip's title.
+ *
+ * Why mediabunny + WebCodecs and not the ffmpeg.wasm core: the overlay is a canvas here
+ * already, and handing it to WebCodecs costs a copy, while ffmpeg.wasm would need every
+ * overlay frame as PNG/raw in its virtual file system (see bench/export.bench.ts).
+ *
+ *   const bytes = await exportClipEmbedded({ url, plan, overlay, width: 1280, height: 720, signal, onProgress });
+ */
+import { ALL_FORMATS, BlobSource, BufferTarget, Conversion, Input, Mp4OutputFormat, Output, UrlSource, type VideoSample } from 'mediabunny';
+import { frameAtOrBefore } from '../../../engine/timecode/index.ts';
+import { LAYER_IDS, type LayerSelection, type OverlayData, type OverlayRenderer, type OverlaySettings } from '../overlay/contract.ts';
+import { buildOverlayScene } from '../overlay/scene.ts';
+import { matchClockText, trackingToEventClock, type ClipPlan } from './plan.ts';
+import type { ClockFit } from '../../../shared-types/index.ts';
+import { footageToTracking } from '../../../engine/fit/footage-map.ts';
+
+export interface OverlayInput {
+  data: OverlayData;
+  settings: OverlaySettings;
+  renderer: OverlayRenderer;
+  /** Event log -> tracking fit, for the match clock caption. */
+  eventFit?: ClockFit;
+}
+
+export interface EmbeddedClipRequest {
+  /** URL of the footage (the host serves opened files, byte ranges included) or its bytes. */
+  source: string | Blob;
+  plan: ClipPlan;
+  /** Footage PTS table (the probe's), to find each decoded frame's index. */
+  pts: ArrayLike<number>;
+  overlay?: OverlayInput;
+  width: number;
+  height: number;
+  /** Draw the match clock caption (bottom left). Default true. */
+  caption?: boolean;
+  /** Seconds the clip title stays on screen at the start (0: none). Default 2. */
+  titleS?: number;
+  signal?: AbortSignal;
+  /** fraction 0..1 and seconds left (estimated from the speed so far). */
+  onProgress?: (fraction: number, secondsLeft: number | undefined) => void;
+}
+
+export class ExportCancelled extends Error {
+  constructor() {
+    super('export cancelled; nothing was written');
+  }
+}
+
+/** The layer selection of a clip: the listed layers on for both teams. */
+export function layerSelection(layers: string[]): LayerSelection {
+  const sel = {} as LayerSelection;
+  for (const id of LAYER_IDS) sel[id] = { home: layers.includes(id), away: layers.includes(id) };
+  return sel;
+}
+
+/** Caption and title drawn over the picture (canvas 2-D), scaled to the output height. */
+export function drawCaption(ctx: OffscreenCanvasRenderingContext2D | CanvasRenderingContext2D, w: number, h: number, clock: string | undefined, title: string | undefined): void {
+  const u = h / 720;
+  ctx.save();
+  ctx.textBaseline = 'middle';
+  if (clock) {
+    ctx.font = `600 ${Math.round(22 * u)}px system-ui, sans-serif`;
+    const tw = ctx.measureText(clock).width;
+    ctx.fillStyle = 'rgba(12,16,20,0.78)';
+    ctx.fillRect(16 * u, h - 52 * u, tw + 24 * u, 36 * u);
+    ctx.fillStyle = '#f4f4f4';
+    ctx.fillText(clock, 28 * u, h - 34 * u);
+  }
+  if (title) {
+    ctx.font = `700 ${Math.round(30 * u)}px system-ui, sans-serif`;
+    const tw = ctx.measureText(title).width;
+    ctx.fillStyle = 'rgba(12,16,20,0.82)';
+    ctx.fillRect(0, 24 * u, tw + 56 * u, 52 * u);
+    ctx.fillStyle = '#ffd27a';
+    ctx.fillRect(0, 24 * u, 8 * u, 52 * u);
+    ctx.fillStyle = '#ffffff';
+    ctx.fillText(title, 28 * u, 50 * u);
+  }
+  ctx.restore();
+}
+
+export async function exportClipEmbedded(req: EmbeddedClipRequest): Promise<Uint8Array> {
+  const { plan, width, height } = req;
+  if (req.signal?.aborted) throw new ExportCancelled();
+  const input = new Input({ source: typeof req.source === 'string' ? new UrlSource(req.source) : new BlobSource(req.source), formats: ALL_FORMATS });
+  const target = new BufferTarget();
+  const output = new Output({ format: new Mp4OutputFormat({ fastStart: 'in-memory' }), target });
+  const canvas = new OffscreenCanvas(width, height);
+  const ctx = canvas.getContext('2d')!;
+  const ov = req.overlay;
+  const settings = ov ? { ...ov.settings, layers: layerSelection(plan.layers) } : undefined;
+  const titleS = req.titleS ?? 2;
+  const caption = req.caption ?? true;
+  const start = plan.footage.inT;
+  const end = plan.footage.outT;
+  const half = 0.5 / 25;
+
+  const process = (sample: VideoSample) => {
+    // Output timestamps start at the trim start; the source frame is found in the PTS table.
+    const srcT = start + sample.timestamp;
+    const index = Math.max(0, frameAtOrBefore(req.pts, srcT + 1e-4));
+    sample.draw(ctx, 0, 0, width, height);
+    if (ov && settings) {
+      const scene = buildOverlayScene(ov.data, { index, t: req.pts[index] ?? srcT }, settings, { width, height });
+      ov.renderer.draw(scene);
+      ctx.drawImage(ov.renderer.canvas, 0, 0, width, height);
+    }
+    let clock: string | undefined;
+    if (caption) {
+      const m = ov?.data.fit ? footageToTracking(ov.data.fit, srcT) : undefined;
+      clock = m ? matchClockText(m.period, trackingToEventClock(ov?.eventFit, m.period, m.t)) : undefined;
+    }
+    drawCaption(ctx, width, height, clock, sample.timestamp < titleS ? plan.title : undefined);
+    return canvas;
+  };
+
+  const conversion = await Conversion.init({
+    input,
+    output,
+    trim: { start, end: end - half },
+    video: { codec: 'avc', forceTranscode: true, process, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
+    audio: { codec: 'aac' },
+    showWarnings: false,
+  });
+  if (!conversion.isValid) {
+    const why = conversion.discardedTracks.map((d) => `${d.track.type} track: ${d.reason}`).join('; ');
+    throw new Error(`${plan.title}: this browser cannot export the footage (${why || 'no usable track'})`);
+  }
+  // AAC cannot be encoded by this browser's WebCodecs: re-init with Opus when the audio was dropped.
+  let conv = conversion;
+  if (conversion.discardedTracks.some((d) => d.track.type === 'audio')) {
+    const output2 = new Output({ format: new Mp4OutputFormat({ fastStart: 'in-memory' }), target: new BufferTarget() });
+    conv = await Conversion.init({
+      input,
+      output: output2,
+      trim: { start, end: end - half },
+      video: { codec: 'avc', forceTranscode: true, process, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
+      audio: { codec: 'opus', forceTranscode: true },
+      showWarnings: false,
+    });
+  }
+  const t0 = performance.now();
+  conv.onProgress = (p) => {
+    const spent = (performance.now() - t0) / 1000;
+    req.onProgress?.(p, p > 0.02 ? (spent / p) * (1 - p) : undefined);
+  };
+  const onAbort = () => void conv.cancel();
+  req.signal?.addEventListener('abort', onAbort);
+  try {
+    await conv.execute();
+  } catch (e) {
+    if (req.signal?.aborted) throw new ExportCancelled();
+    throw e;
+  } finally {
+    req.signal?.removeEventListener('abort', onAbort);
+    input.dispose?.();
+  }
+  if (req.signal?.aborted) throw new ExportCancelled();
+  const buf = (conv.output.target as BufferTarget).buffer;
+  if (!buf) throw new Error(`${plan.title}: the encoder produced no file`);
+  return new Uint8Array(buf);
+}
