@@ -53,7 +53,8 @@ function counterDiff(a: Buffer, b: Buffer, width: number): number {
   return s / k;
 }
 
-async function runExport(args: Record<string, unknown>): Promise<Buffer> {
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+async function runExport(args: Record<string, any>): Promise<Buffer> {
   const b64 = await ep.page.evaluate(
     async ({ args, b64 }) => {
       const wm = (window as any).wm;
