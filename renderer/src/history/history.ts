@@ -46,9 +46,14 @@ function tablesOf(db: WhistlemarkDb) {
 }
 
 let lastStamp = 0;
-/** Strictly increasing ms stamps, so two changes in one millisecond keep their order. */
-function nextStamp(): number {
-  lastStamp = Math.max(Date.now(), lastStamp + 1);
+/**
+ * Strictly increasing ms stamps, so two changes in one millisecond keep their order; and
+ * past the newest stamp stored, so the order holds after a restart, and in a project
+ * opened from a file written on a machine whose clock ran ahead.
+ */
+async function nextStamp(db: WhistlemarkDb, projectId: number): Promise<number> {
+  const newest = await db.audit.where('[projectId+stamp]').between([projectId, -Infinity], [projectId, Infinity]).last();
+  lastStamp = Math.max(Date.now(), lastStamp + 1, (newest?.stamp ?? 0) + 1);
   return lastStamp;
 }
 
@@ -84,7 +89,7 @@ export async function commit(db: WhistlemarkDb, req: CommitRequest): Promise<num
       subject: req.subject,
       changes: recorded,
       state: 'done',
-      stamp: nextStamp(),
+      stamp: await nextStamp(db, req.projectId),
     });
     await db.projects.update(req.projectId, { updatedAt: now });
     return keys;
@@ -109,7 +114,7 @@ export async function undo(db: WhistlemarkDb, projectId: number, user: string): 
     const row = await latest(db, projectId, 'done');
     if (!row) return undefined;
     await apply(db, row, 'back');
-    await db.audit.update(row.id!, { state: 'undone', stamp: nextStamp() });
+    await db.audit.update(row.id!, { state: 'undone', stamp: await nextStamp(db, projectId) });
     await db.audit.add({ projectId, at: Date.now(), user, what: `undo: ${row.what}`, subject: 'undo' });
     return step(row);
   });
@@ -121,7 +126,7 @@ export async function redo(db: WhistlemarkDb, projectId: number, user: string): 
     const row = await latest(db, projectId, 'undone');
     if (!row) return undefined;
     await apply(db, row, 'forward');
-    await db.audit.update(row.id!, { state: 'done', stamp: nextStamp() });
+    await db.audit.update(row.id!, { state: 'done', stamp: await nextStamp(db, projectId) });
     await db.audit.add({ projectId, at: Date.now(), user, what: `redo: ${row.what}`, subject: 'undo' });
     return step(row);
   });
