@@ -39,7 +39,7 @@ async function freshDb() {
   return db;
 }
 
-async function applyCommit(db: WhistlemarkDb, spec: fc.ValueOf<typeof commitArb>, i: number) {
+async function applyCommit(db: WhistlemarkDb, spec: Parameters<Parameters<typeof commitArb.map>[0]>[0], i: number) {
   const changes: ChangeInput[] = [];
   for (const c of spec) {
     const keys = (await db.table(c.table).toCollection().primaryKeys()) as number[];
