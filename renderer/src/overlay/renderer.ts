@@ -7,6 +7,8 @@
  *   const r = await createOverlayRenderer({ width: 1280, height: 720 });
  *   r.draw(scene);   // synchronous; r.canvas now shows the scene
  */
+// The app's content security policy forbids eval; pixi's shader and uniform code then needs its eval-free polyfills.
+import 'pixi.js/unsafe-eval';
 import { autoDetectRenderer, Container, Graphics, type Renderer } from 'pixi.js';
 import type { CreateOverlayRenderer, LayerId, OverlayRenderer, OverlayScene, TeamKey } from './contract.ts';
 import { LabelPool } from './labels.ts';
