@@ -11,7 +11,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_SIM } from '../../fixtures/sim/demo-config.ts';
 import { sampleAt, simulateMatch, type Truth } from '../../fixtures/sim/index.ts';
-import { DEMO_DIR, ROOT, shot, startApp, type RunningApp } from './harness.ts';
+import { DEMO_DIR, ROOT, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
 
 const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
 const truthH = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth-homography.json'), 'utf8')) as { frames: number[][]; width: number; height: number };
@@ -72,6 +72,114 @@ async function writeFitAndNonLive(page: Page) {
   );
 }
 
+const world = simulateMatch(DEMO_SIM);
+const FPS = 25;
+
+/** True time shown by live footage frame `index` (truth.json footage clock, live segments only). */
+function trueTimeOfFrame(index: number): number | undefined {
+  const t = index / FPS; // constant 25 fps footage starting at 0 (fixtures/README.md)
+  const seg = truth.clocks.footage!.segments.find((s) => s.kind !== 'replay' && t >= s.fromT && t <= s.toT);
+  return seg && seg.offset + seg.rate * t;
+}
+
+/** Where each player really is on footage frame `index`, in footage pixels (demo simulator + truth homography). */
+function truthPlayersOnFrame(index: number): { id: string; team: 'home' | 'away'; u: number; v: number }[] {
+  const tt = trueTimeOfFrame(index);
+  if (tt === undefined) return [];
+  const n = world.objects.length;
+  const xy = new Float64Array(2 * n + 1);
+  if (!sampleAt(world, tt, xy)) return [];
+  const h = truthH.frames[index];
+  return world.objects.flatMap((o, i) => {
+    if (o.role !== 'player' || !o.team) return [];
+    const [u, v] = project(h, xy[2 * i], xy[2 * i + 1]);
+    return [{ id: o.id, team: o.team, u, v }];
+  });
+}
+
+/** Image pixels per pitch metre at image point (u, v) of homography h (inverse mapped, then 1 m along x). */
+function localScale(h: number[], u: number, v: number): number {
+  // Invert h by its adjugate (the scale does not matter for a homography).
+  const [a, b, c, d, e, f, g, hh, i] = h;
+  const inv = [e * i - f * hh, c * hh - b * i, b * f - c * e, f * g - d * i, a * i - c * g, c * d - a * f, d * hh - e * g, b * g - a * hh, a * e - b * d];
+  const [x, y] = project(inv, u, v);
+  const p = project(h, x - 0.5, y);
+  const q = project(h, x + 0.5, y);
+  return Math.hypot(q[0] - p[0], q[1] - p[1]);
+}
+
+interface Box {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+/** RGBA pixels of the footage stage (the video with the overlay canvas on it). */
+async function stagePixels(page: Page, name?: string): Promise<{ png: Buffer; box: Box; rgba: Uint8ClampedArray; w: number; h: number }> {
+  const stage = page.locator('.watch-stage');
+  const box = (await stage.boundingBox())!;
+  const png = await stage.screenshot(name ? { path: join(SHOTS, `${name}.png`) } : {});
+  const { rgba, w, h } = await decodePng(page, png);
+  return { png, box, rgba, w, h };
+}
+
+/** Decodes a PNG in the page (the browser's own decoder) to RGBA. */
+async function decodePng(page: Page, png: Buffer): Promise<{ rgba: Uint8ClampedArray; w: number; h: number }> {
+  const r = await page.evaluate(async (b64) => {
+    const bmp = await createImageBitmap(await (await fetch(`data:image/png;base64,${b64}`)).blob());
+    const c = new OffscreenCanvas(bmp.width, bmp.height);
+    const ctx = c.getContext('2d')!;
+    ctx.drawImage(bmp, 0, 0);
+    return { data: Array.from(ctx.getImageData(0, 0, bmp.width, bmp.height).data), w: bmp.width, h: bmp.height };
+  }, png.toString('base64'));
+  return { rgba: Uint8ClampedArray.from(r.data), w: r.w, h: r.h };
+}
+
+/** Pixels that differ between two shots of the same frame (the overlay), as a mask. */
+function diffMask(a: Uint8ClampedArray, b: Uint8ClampedArray): Uint8Array {
+  const m = new Uint8Array(a.length / 4);
+  for (let i = 0; i < m.length; i++) {
+    const d = Math.abs(a[4 * i] - b[4 * i]) + Math.abs(a[4 * i + 1] - b[4 * i + 1]) + Math.abs(a[4 * i + 2] - b[4 * i + 2]);
+    m[i] = d > 60 ? 1 : 0;
+  }
+  return m;
+}
+
+/** Centroid of mask pixels within radius r of (cx, cy) in shot pixels. */
+function centroidNear(mask: Uint8Array, w: number, h: number, cx: number, cy: number, r: number): { x: number; y: number; n: number } {
+  let sx = 0;
+  let sy = 0;
+  let n = 0;
+  for (let y = Math.max(0, Math.floor(cy - r)); y <= Math.min(h - 1, Math.ceil(cy + r)); y++)
+    for (let x = Math.max(0, Math.floor(cx - r)); x <= Math.min(w - 1, Math.ceil(cx + r)); x++) {
+      if ((x - cx) ** 2 + (y - cy) ** 2 > r * r || !mask[y * w + x]) continue;
+      sx += x;
+      sy += y;
+      n++;
+    }
+  return { x: sx / n, y: sy / n, n };
+}
+
+async function goToFrame(page: Page, index: number) {
+  await page.getByLabel('Go to frame').fill(String(index));
+  await page.getByLabel('Go to frame').press('Enter');
+  await page.getByTestId('watch-frame').filter({ hasText: new RegExp(`^frame ${index} `) }).waitFor({ timeout: 20_000 });
+  // Blur the field so layer keys reach the screen, then let the overlay draw.
+  await page.locator('.watch-stage').hover();
+  await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+  await page.waitForTimeout(150);
+}
+
+/** Toggles a layer with its key and waits until the checkbox shows the new state. */
+async function toggleLayer(page: Page, key: string, layer: string, on: boolean) {
+  const box = page.getByLabel(`${layer} for Home`);
+  if ((await box.isChecked()) === on) return;
+  await page.keyboard.press(key);
+  await expect.poll(() => box.isChecked()).toBe(on);
+  await page.waitForTimeout(150);
+}
+
 let app: RunningApp;
 beforeAll(async () => {
   app = await startApp();
@@ -80,11 +188,34 @@ afterAll(async () => {
   await app?.close();
 });
 
+/** Keyframes of the registration: one second apart while the camera pans. */
+const KEYFRAMES = [1750, 1775];
+
+/** Development scaffold until the clicks land: the registration row from the truth homography. */
+async function writeTruthRegistration(page: Page) {
+  const data = { schema: 'whistlemark-registration/1', imageWidth: 640, imageHeight: 360, keyframes: KEYFRAMES.map((f) => ({ frame: f, t: f / 25, pairs: [], errors: [], homography: truthH.frames[f] })) };
+  await page.evaluate(async (data) => {
+    const db: IDBDatabase = await new Promise((res) => {
+      const r = indexedDB.open('whistlemark');
+      r.onsuccess = () => res(r.result);
+    });
+    const tx = db.transaction(['sources', 'pitchRegistrations'], 'readwrite');
+    const req = tx.objectStore('sources').getAll();
+    req.onsuccess = () => {
+      const f = (req.result as { id: number; projectId: number; kind: string }[]).find((s) => s.kind === 'footage')!;
+      tx.objectStore('pitchRegistrations').add({ projectId: f.projectId, footageSourceId: f.id, data, updatedAt: Date.now() });
+    };
+    await new Promise((res) => (tx.oncomplete = res));
+    db.close();
+  }, data);
+}
+
 describe.runIf(usingDemo)('Watch screen on the demo match', () => {
   it('opens with the demo, a fit from truth and the overlay canvases', async () => {
     const { page } = app;
     await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 200_000 });
     await writeFitAndNonLive(page);
+    await writeTruthRegistration(page);
     await page.reload();
     await page.getByRole('navigation', { name: 'Screens' }).waitFor();
     await page.keyboard.press('Alt+4');
@@ -95,5 +226,39 @@ describe.runIf(usingDemo)('Watch screen on the demo match', () => {
     await page.getByTestId('watch-frame').filter({ hasText: /^frame \d+/ }).waitFor({ timeout: 60_000 });
     await shot(page, 'watch-01-opened');
     expect(app.outsideRequests).toEqual([]);
+  });
+
+  it('draws the dots on the rendered players (truth positions through the truth homography)', async () => {
+    const { page } = app;
+    const F = KEYFRAMES[0];
+    await goToFrame(page, F);
+    await toggleLayer(page, 't', 'Trails', false);
+    await toggleLayer(page, 'b', 'Ball', false);
+    await toggleLayer(page, 'd', 'Dots', true);
+    const on = await stagePixels(page, 'watch-03-dots-on');
+    await toggleLayer(page, 'd', 'Dots', false);
+    const off = await stagePixels(page, 'watch-04-dots-off');
+    const mask = diffMask(on.rgba, off.rgba);
+    const scale = on.w / truthH.width;
+    const players = truthPlayersOnFrame(F).filter((p) => p.u > 10 && p.v > 10 && p.u < truthH.width - 10 && p.v < truthH.height - 10);
+    // Only players well apart from every other one: overlapping markers have no single centre.
+    const apart = players.filter((p) => players.every((q) => q === p || Math.hypot(q.u - p.u, q.v - p.v) * scale > 40));
+    const errs: number[] = [];
+    const h = truthH.frames[F];
+    for (const p of apart) {
+      const c = centroidNear(mask, on.w, on.h, p.u * scale, p.v * scale, 16);
+      expect(c.n, `overlay pixels near ${p.id}`).toBeGreaterThan(40);
+      const err = Math.hypot(c.x - p.u * scale, c.y - p.v * scale) / scale;
+      errs.push(err);
+      // Tolerance: the tracking file carries 0.12 m of position noise (fixtures/README.md), so
+      // 3 sd of it at this point's image scale, plus 2 px for the marker's label and outline.
+      const xy = world.objects.findIndex((o) => o.id === p.id);
+      const pxPerM = localScale(h, p.u, p.v);
+      expect(err, `${p.id} (object ${xy})`).toBeLessThan(2 + 3 * 0.12 * pxPerM);
+    }
+    console.log(`frame ${F}: ${apart.length} of ${players.length} visible players checked; dot centre - truth: max ${Math.max(...errs).toFixed(2)} px, mean ${(errs.reduce((a, b) => a + b, 0) / errs.length).toFixed(2)} px (footage pixels, 640x360)`);
+    expect(apart.length).toBeGreaterThanOrEqual(5);
+    expect(errs.reduce((a, b) => a + b, 0) / errs.length).toBeLessThan(3);
+    await toggleLayer(page, 'd', 'Dots', true);
   });
 });

@@ -16,8 +16,9 @@ export interface Projector {
 }
 
 export function viewProjector(scene: OverlayScene): Projector {
-  const unit = Math.max(0.5, scene.height / 720);
   if (scene.view.kind === 'pitch') {
+    // The pitch view is small beside the footage: markers scale with the pitch drawn, not the output height.
+    const unit = Math.max(0.7, Math.min(scene.width / 105, scene.height / 68) / 9);
     const { margin } = scene.view;
     const { length, width } = scene.pitch;
     const s = Math.min((scene.width - 2 * margin) / length, (scene.height - 2 * margin) / width);
@@ -29,6 +30,7 @@ export function viewProjector(scene: OverlayScene): Projector {
       unit,
     };
   }
+  const unit = Math.max(0.5, scene.height / 720);
   const h = scene.view.homography;
   const sx = scene.width / scene.view.imageWidth;
   const sy = scene.height / scene.view.imageHeight;

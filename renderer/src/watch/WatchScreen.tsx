@@ -74,8 +74,8 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   const changeSettings = useCallback((s: OverlaySettings) => void saveSettings(db, projectId, s), [db, projectId]);
 
   // --- drawing -------------------------------------------------------------------------
-  const footageCanvas = useRef<HTMLCanvasElement | null>(null);
-  const pitchCanvas = useRef<HTMLCanvasElement | null>(null);
+  const footageHost = useRef<HTMLDivElement | null>(null);
+  const pitchHost = useRef<HTMLDivElement | null>(null);
   const renderers = useRef<{ footage?: OverlayRenderer; pitch?: OverlayRenderer }>({});
   const [size, setSize] = useState({ width: 960, height: 540 });
   const stageRef = useRef<HTMLDivElement | null>(null);
@@ -92,28 +92,46 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   }, [probe]);
 
   useEffect(() => {
+    // Each mount makes its own canvases: a renderer destroyed late (StrictMode's second
+    // mount, a fast screen switch) must not take the WebGL context of the live one with it.
     let dead = false;
+    let made: { footage?: OverlayRenderer; pitch?: OverlayRenderer } = {};
     (async () => {
-      const f = await createOverlayRenderer({ width: size.width, height: size.height, canvas: footageCanvas.current! });
-      const p = await createOverlayRenderer({ width: 480, height: 320, canvas: pitchCanvas.current! });
+      const f = await createOverlayRenderer({ width: 960, height: 540 });
+      const p = await createOverlayRenderer({ width: 480, height: 320 });
+      made = { footage: f, pitch: p };
       if (dead) {
         f.destroy();
         p.destroy();
         return;
       }
-      renderers.current = { footage: f, pitch: p };
+      const fc = f.canvas as HTMLCanvasElement;
+      fc.className = 'watch-overlay';
+      fc.setAttribute('aria-label', 'Overlay on the footage');
+      fc.dataset.testid = 'footage-overlay';
+      footageHost.current?.replaceChildren(fc);
+      const pc = p.canvas as HTMLCanvasElement;
+      pc.setAttribute('aria-label', '2-D pitch view');
+      pc.dataset.testid = 'pitch-view';
+      pitchHost.current?.replaceChildren(pc);
+      renderers.current = made;
       setRenderersReady((n) => n + 1);
     })().catch((e) => setLoadError(`The overlay could not start: ${(e as Error).message}`));
     return () => {
       dead = true;
-      renderers.current.footage?.destroy();
-      renderers.current.pitch?.destroy();
+      made.footage?.destroy();
+      made.pitch?.destroy();
       renderers.current = {};
     };
-    // Made once per mount; resized below.
   }, []);
   const [renderersReady, setRenderersReady] = useState(0);
-  useEffect(() => renderers.current.footage?.resize(size.width, size.height), [size, renderersReady]);
+  useEffect(() => {
+    const f = renderers.current.footage;
+    if (!f) return;
+    f.resize(size.width, size.height);
+    (f.canvas as HTMLCanvasElement).style.width = `${size.width}px`;
+    (f.canvas as HTMLCanvasElement).style.height = `${size.height}px`;
+  }, [size, renderersReady]);
 
   const drawNow = useCallback(
     (f: DisplayedFrame | undefined) => {
@@ -267,7 +285,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
       <div className="watch-main">
         <div className="watch-stage" ref={stageRef} style={{ height: size.height }} data-registering={registering || undefined} onClick={onStageClick}>
           <video ref={videoRef} className="watch-video" style={{ width: size.width, height: size.height }} muted playsInline preload="auto" aria-label="Footage" />
-          <canvas ref={footageCanvas} className="watch-overlay" style={{ width: size.width, height: size.height }} aria-label="Overlay on the footage" data-testid="footage-overlay" />
+          <div ref={footageHost} className="watch-overlay-host" />
           {registering && data && <PairMarkers pairs={pairs} solved={solved} w={data.footage.width} h={data.footage.height} selected={selected} />}
         </div>
         <WatchTransport player={player} frame={frame} data={data} />
@@ -277,7 +295,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
       </div>
       <aside className="watch-side">
         <figure className="watch-pitch">
-          <canvas ref={pitchCanvas} width={480} height={320} aria-label="2-D pitch view" data-testid="pitch-view" />
+          <div ref={pitchHost} className="watch-pitch-host" />
           <figcaption className="muted small">Same moment on the pitch{frame && data ? '' : ''}</figcaption>
         </figure>
         <LayerPanel settings={settings} onChange={changeSettings} data={data} />
@@ -356,6 +374,18 @@ function WatchTransport({ player, frame, data }: { player: PlayerControl | null;
       <button type="button" onClick={() => void player?.step(1)} disabled={!player} title="Next frame (→)" aria-keyshortcuts="ArrowRight">
         frame ▶
       </button>
+      <form
+        className="watch-goto"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const v = Number(new FormData(e.currentTarget).get('frame'));
+          if (Number.isFinite(v)) void player?.seekToFrame(v);
+        }}
+      >
+        <label className="small">
+          Go to frame <input name="frame" type="number" min={0} step={1} className="mono" aria-label="Go to frame" />
+        </label>
+      </form>
       <span className="mono" data-testid="watch-frame">
         {frame ? `frame ${frame.index} · ${frame.t.toFixed(2)} s` : 'no frame yet'}
       </span>
