@@ -14,6 +14,7 @@ const commandModules: Record<string, string> = {
   inspect: './cli/inspect.ts',
   sync: './cli/sync.ts',
   whistles: './cli/whistles.ts',
+  cuts: './cli/cuts.ts',
 };
 const commands: Record<string, () => Promise<{ command: CliCommand }>> = Object.fromEntries(
   Object.entries(commandModules).map(([name, rel]) => [name, () => import(new URL(rel, import.meta.url).href)]),
