@@ -11,6 +11,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_SIM } from '../../fixtures/sim/demo-config.ts';
 import { sampleAt, simulateMatch, type Truth } from '../../fixtures/sim/index.ts';
+import { deltaE76, simulate, type Rgb } from '../unit/overlay/colour-vision.ts';
 import { DEMO_DIR, ROOT, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
 
 const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
@@ -260,5 +261,86 @@ describe.runIf(usingDemo)('Watch screen on the demo match', () => {
     expect(apart.length).toBeGreaterThanOrEqual(5);
     expect(errs.reduce((a, b) => a + b, 0) / errs.length).toBeLessThan(3);
     await toggleLayer(page, 'd', 'Dots', true);
+
+    // Colour-blind check on the same shot: mean colour of each team's marker pixels,
+    // simulated for deuteranopia and protanopia (Machado et al. 2009), CIE 1976 ΔE*ab apart.
+    const meanOf = (team: 'home' | 'away') => {
+      const acc = [0, 0, 0];
+      let n = 0;
+      for (const p of apart.filter((q) => q.team === team)) {
+        const cx = p.u * scale;
+        const cy = p.v * scale;
+        for (let y = Math.floor(cy - 6); y <= cy + 6; y++)
+          for (let x = Math.floor(cx - 6); x <= cx + 6; x++) {
+            const i = y * on.w + x;
+            if (x < 0 || y < 0 || x >= on.w || y >= on.h || !mask[i]) continue;
+            for (let k = 0; k < 3; k++) acc[k] += on.rgba[4 * i + k];
+            n++;
+          }
+      }
+      return acc.map((v) => v / n) as Rgb;
+    };
+    const home = meanOf('home');
+    const away = meanOf('away');
+    const deut = deltaE76(simulate(home, 'deuteranopia'), simulate(away, 'deuteranopia'));
+    const prot = deltaE76(simulate(home, 'protanopia'), simulate(away, 'protanopia'));
+    console.log(`screenshot marker colours: home rgb(${home.map((v) => v.toFixed(0))}), away rgb(${away.map((v) => v.toFixed(0))}); ΔE*ab normal ${deltaE76(home, away).toFixed(1)}, deuteranopia ${deut.toFixed(1)}, protanopia ${prot.toFixed(1)}`);
+    expect(deut).toBeGreaterThan(25);
+    expect(prot).toBeGreaterThan(25);
+  });
+
+  it('layer toggles change the picture, per team', async () => {
+    const { page } = app;
+    const both = await stagePixels(page, 'watch-05-both-teams');
+    await page.getByLabel('Dots for Away').click();
+    await expect.poll(() => page.getByLabel('Dots for Away').isChecked()).toBe(false);
+    await page.waitForTimeout(200);
+    const homeOnly = await stagePixels(page, 'watch-06-home-dots-only');
+    const changed = diffMask(both.rgba, homeOnly.rgba);
+    const scale = both.w / truthH.width;
+    const players = truthPlayersOnFrame(KEYFRAMES[0]).filter((p) => p.u > 10 && p.v > 10 && p.u < truthH.width - 10 && p.v < truthH.height - 10);
+    const near = (team: 'home' | 'away') => players.filter((p) => p.team === team && players.every((q) => q === p || Math.hypot(q.u - p.u, q.v - p.v) * scale > 40)).map((p) => centroidNear(changed, both.w, both.h, p.u * scale, p.v * scale, 14).n);
+    // Away markers went, home markers stayed.
+    expect(Math.min(...near('away'))).toBeGreaterThan(30);
+    expect(Math.max(...near('home'))).toBe(0);
+    await page.getByLabel('Dots for Away').click();
+    await expect.poll(() => page.getByLabel('Dots for Away').isChecked()).toBe(true);
+    await toggleLayer(page, 't', 'Trails', true);
+    const trails = await stagePixels(page, 'watch-07-trails');
+    expect(diffMask(both.rgba, trails.rgba).reduce((a, b) => a + b, 0)).toBeGreaterThan(200);
+  });
+
+  it('plays through with the overlay following the footage', async () => {
+    const { page } = app;
+    await goToFrame(page, KEYFRAMES[0] - 25);
+    await page.getByRole('button', { name: /^Play/ }).click();
+    await page.waitForTimeout(1500);
+    await shot(page, 'watch-08-playing');
+    await page.getByRole('button', { name: /^Pause/ }).click();
+    const text = await page.getByTestId('watch-frame').innerText();
+    const index = Number(/frame (\d+)/.exec(text)![1]);
+    expect(index).toBeGreaterThan(KEYFRAMES[0] - 25 + 10);
+  });
+
+  it('draws no overlay on the footage in a replay, with a quiet indicator; the pitch view keeps the live moment', async () => {
+    const { page } = app;
+    const replay = truth.nonLive!.find((n) => n.kind === 'replay')!;
+    const F = Math.round(((replay.fromT + replay.toT) / 2) * FPS);
+    await goToFrame(page, F);
+    await toggleLayer(page, 'd', 'Dots', true);
+    const on = await stagePixels(page, 'watch-09-replay');
+    await toggleLayer(page, 'd', 'Dots', false);
+    const off = await stagePixels(page);
+    const footageDiff = diffMask(on.rgba, off.rgba).reduce((a, b) => a + b, 0);
+    await toggleLayer(page, 'd', 'Dots', true);
+    await shot(page, 'watch-10-replay-screen');
+    // The indicator tag says why (top-left of the overlay); dots never appear on the replay.
+    expect(footageDiff).toBe(0);
+    const pitch = page.getByTestId('pitch-view');
+    const a = await decodePng(page, await pitch.screenshot());
+    await toggleLayer(page, 'd', 'Dots', false);
+    const b = await decodePng(page, await pitch.screenshot());
+    await toggleLayer(page, 'd', 'Dots', true);
+    expect(diffMask(a.rgba, b.rgba).reduce((x, y) => x + y, 0)).toBeGreaterThan(100);
   });
 });

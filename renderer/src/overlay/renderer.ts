@@ -78,7 +78,7 @@ export const createOverlayRenderer: CreateOverlayRenderer = async (options) => {
     }
     if (!scene.live) {
       // Quiet indicator: a small grey tag in the corner, no positions on the footage.
-      const s = 11 * view.unit;
+      const s = Math.max(11, 12 * view.unit);
       const text = footage ? `${scene.notLiveReason ?? 'Not live'} · no overlay` : `${scene.notLiveReason ?? 'Not live'} · showing last live moment`;
       const w = text.length * s * 0.62 + 16 * view.unit;
       indicator.roundRect(10 * view.unit, 10 * view.unit, w, s * 2, 4 * view.unit).fill({ color: 0x1b1b1b, alpha: 0.6 });

@@ -229,7 +229,9 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   // --- keys ------------------------------------------------------------------------------
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
-      if (isTypingTarget(e.target) || e.altKey || e.metaKey) return;
+      // A focused layer checkbox takes no typed text: the layer keys still work there.
+      const checkbox = e.target instanceof HTMLInputElement && e.target.type === 'checkbox';
+      if ((isTypingTarget(e.target) && !checkbox) || e.altKey || e.metaKey) return;
       if (registering && e.ctrlKey && e.key.startsWith('Arrow')) {
         e.preventDefault();
         const step = e.shiftKey ? 0.25 : 1;

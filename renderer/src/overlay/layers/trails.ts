@@ -12,7 +12,8 @@ export const trailsLayer: OverlayLayer = {
     for (const tr of scene.trails) {
       const colour = tr.team === 'ball' ? BALL_FILL : scene.teams[tr.team].colour;
       if (tr.team !== 'ball' && !teams.includes(tr.team)) continue;
-      if (tr.team === 'ball' && !teams.length) continue;
+      // The ball's trail goes with the ball layer.
+      if (tr.team === 'ball' && !(scene.layers.ball.home || scene.layers.ball.away)) continue;
       const n = tr.points.length / 2;
       // Four age bands, older fainter: four strokes instead of one per segment.
       const bands = 4;
