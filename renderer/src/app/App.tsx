@@ -13,6 +13,7 @@ import { seedDemoOnFirstStart, type SeedStep } from './firstStart.ts';
 import { NavRail, screenForKey, type ScreenId } from './NavRail.tsx';
 import { ProjectBar } from './ProjectBar.tsx';
 import { useLive } from './useLive.ts';
+import { AnalysisAutoRun } from '../analysis/AnalysisBar.tsx';
 
 export function App({ services }: { services: AppServices }) {
   const { db } = services;
@@ -61,6 +62,7 @@ export function App({ services }: { services: AppServices }) {
             {seedError && <p className="error-text" role="alert">{seedError}</p>}
             {seed && <SeedBanner steps={seed} onDismiss={seeding ? undefined : () => setSeed(null)} />}
             {ready && current && screen === 'sources' && <SourcesScreen key={current.id} projectId={current.id!} busyElsewhere={seeding} />}
+            {ready && current && !seeding && <AnalysisAutoRun key={`analysis-${current.id}`} projectId={current.id!} />}
             {ready && current && !seeding && screen === 'sync' && <SyncScreen key={current.id} projectId={current.id!} />}
             {ready && current && !seeding && screen === 'review' && <ReviewScreen key={current.id} projectId={current.id!} />}
             {ready && current && !seeding && screen === 'watch' && <WatchScreen key={current.id} projectId={current.id!} />}
