@@ -6,6 +6,7 @@ import type { ProjectRow } from '../db/rows.ts';
 import { createProject, deleteProject } from '../db/store.ts';
 import { useServices } from './context.ts';
 import { ConfirmDialog, PromptDialog } from './Dialogs.tsx';
+import { ProjectMenu } from '../export/ExportMenu.tsx';
 
 export async function selectProject(db: WhistlemarkDb, id: number | undefined) {
   await db.settings.put({ key: 'currentProject', value: id });
@@ -56,6 +57,7 @@ export function ProjectBar({ projects, currentId }: { projects: ProjectRow[]; cu
       <button type="button" className="quiet danger-text" disabled={!current} onClick={() => setDeleting(true)}>
         Delete project…
       </button>
+      <ProjectMenu projectId={current?.id} onOpened={(id) => void selectProject(db, id)} />
       <span className="topbar-spacer" />
       <span className="host-badge" title="Where the app runs; everything stays on this machine">
         {info.mode === 'electron' ? 'desktop' : 'browser mode'} · local only · {info.userName}
