@@ -125,7 +125,7 @@ function SaveDialog({ projectId, kind, onClose }: { projectId: number; kind: Exp
       (r) => {
         if (!live) return;
         setBuilt(r);
-        setName(r.name);
+        setName((n) => n || r.name);
         setState({});
       },
       (e: Error) => live && setState({ error: e.message }),

@@ -3,7 +3,7 @@ import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { clockFitsJson, correctedEventRows, correctedEventsCsv, correctedEventsJson, DATA_PROTECTION_CAUTION, syncReportHtml, type CorrectedEventRow } from '../../../engine/export/index.ts';
 import { syncMatch, type SyncResult } from '../../../engine/sync.ts';
-import { trueToSource } from '../../../fixtures/sim/truth.ts';
+import { shareWithinTruth } from './truth-share.ts';
 import { DEMO, loadSources, type LoadedSources } from '../project-file/demo-project.ts';
 
 let src: LoadedSources;
@@ -21,16 +21,8 @@ function rows(status: (i: number) => 'accepted' | 'rejected' | 'proposed' | 'edi
   );
 }
 
-/** Share of events whose time (tracking clock) is within 0.2 s of the simulator's truth. */
 function shareWithin(rs: CorrectedEventRow[], pick: (r: CorrectedEventRow) => number | null, tol = 0.2) {
-  let ok = 0;
-  for (const r of rs) {
-    const t = truth.events.find((e: { id: string }) => `e${e.id}` === r.event_id || e.id === r.event_id);
-    const want = trueToSource(truth, 'tracking', t.trueT);
-    const got = pick(r);
-    if (want && got !== null && Math.abs(got - want.t) <= tol) ok++;
-  }
-  return ok / rs.length;
+  return shareWithinTruth(truth, rs.map((r) => ({ row: r.row, period: r.corrected_period, t: pick(r) })), tol);
 }
 
 describe('corrected event log', () => {
