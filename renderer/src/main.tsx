@@ -3,6 +3,8 @@ import { createRoot } from 'react-dom/client';
 import { App } from './app/App.tsx';
 import { getDb } from './db/database.ts';
 import { getHost } from './host/index.ts';
+import { AppContext } from './app/context.ts';
+import { FootageCheckPage, isFootageCheck } from './player/FootageCheckPage.tsx';
 import './styles.css';
 
 const root = createRoot(document.getElementById('root')!);
@@ -13,7 +15,15 @@ async function boot() {
     const info = await host.info();
     const db = getDb();
     await db.open();
-    root.render(<App services={{ host, info, db }} />);
+    const services = { host, info, db };
+    // A page of its own for checking a footage file frame by frame (tests, benchmarks).
+    if (isFootageCheck(location.hash)) {
+      root.render(
+        <AppContext.Provider value={services}>
+          <FootageCheckPage hash={location.hash} />
+        </AppContext.Provider>,
+      );
+    } else root.render(<App services={services} />);
   } catch (e) {
     root.render(
       <div className="boot-error" role="alert">
