@@ -83,12 +83,17 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
   // First pass: robust fit on everything, then flag MAD outliers and refit without them.
   // Both passes carry the drift prior, so an ill-determined rate cannot mis-flag points.
   const slopePrior = ratePrior(opts);
-  const first = huberFit(ts, refs, { minScale, slopePrior });
-  const res = first.residuals;
+  // Pair weights (when any pair has one) are relative inverse variances: outliers are
+  // judged on standardised residuals √w·r, so a precise point is not out-voted by many
+  // vague ones (see HuberOptions.weights).
+  const weighted = sorted.some((p) => p.weight !== undefined && p.weight !== 1);
+  const weights = weighted ? sorted.map((p) => p.weight ?? 1) : undefined;
+  const first = huberFit(ts, refs, { minScale, slopePrior, weights });
+  const res = weights ? Array.from(first.residuals, (r, i) => r * Math.sqrt(weights[i])) : first.residuals;
   const m = median(res);
   const s = Math.max(minScale, ROBUST * mad(res));
   const mask = sorted.map((p, i) => (Math.abs(res[i] - m) > madLimit * s ? 0 : (p.weight ?? 1)));
-  const fit = huberFit(ts, refs, { minScale, mask, slopePrior });
+  const fit = huberFit(ts, refs, { minScale, mask, slopePrior, weights });
   const points = sorted.map((p, i) => {
     const fp = point(p, fit.residuals[i], mask[i] > 0);
     if (!fp.used) fp.rejectedBecause = `MAD outlier: residual ${fit.residuals[i].toFixed(2)} s is beyond ${madLimit} robust SD (${s.toFixed(3)} s)`;
@@ -100,7 +105,8 @@ export function fitClock(pairs: ClockPair[], period: PeriodId, opts: ClockFitOpt
       ss += fit.residuals[i] ** 2;
       used++;
     }
-  const w = Float64Array.from(fit.weights, (v, i) => v * (mask[i] > 0 ? sorted[i].weight ?? 1 : 0));
+  // huberFit's weights already carry the pair weights when the fit is weighted.
+  const w = Float64Array.from(fit.weights, (v, i) => (weights ? v : v * (mask[i] > 0 ? sorted[i].weight ?? 1 : 0)));
   return segment(period, ts[0], ts[n - 1], fit.intercept, fit.slope, fit.interceptSe, fit.slopeSe, points,
     Math.sqrt(ss / Math.max(1, used)), leaveOneOutMax(ts, refs, w, fit.priorWeight, slopePrior?.mean ?? 1));
 }

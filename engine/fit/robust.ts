@@ -79,6 +79,13 @@ export interface HuberOptions {
    * scale the Huber weights use. Absent: the plain (unpenalised) Huber fit.
    */
   slopePrior?: SlopePrior;
+  /**
+   * Prior weights, relative inverse variances (1 = a unit-weight point): a point of weight
+   * w counts as w unit-weight points. Scale, Huber weights and the prior's λ then work on
+   * standardised residuals √w·r, and standard errors use the unit-weight variance
+   * Σ w r² / (n − 2). Absent: every point has weight 1 (the plain fit, unchanged).
+   */
+  weights?: ArrayLike<number>;
 }
 
 /**
@@ -123,14 +130,20 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
   let scale = minScale;
   const prior = opts.slopePrior;
   let lambda = 0;
+  const pw = opts.weights;
+  const root = pw ? Float64Array.from(pw, (v) => Math.sqrt(Math.max(0, v))) : undefined;
   for (let it = 0; it < (opts.iterations ?? 30); it++) {
     for (let i = 0; i < n; i++) r[i] = ys[i] - a - b * xs[i];
     // The scale is re-estimated on the first iterations only, then held (it settles fast;
     // each estimate costs two sorts).
-    if (it < 3) scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => r[i])));
+    if (it < 3) scale = Math.max(minScale, 1.4826 * mad(idx.map((i) => (root ? root[i] * r[i] : r[i]))));
     // Prior weight in the units of the weighted squares: (noise scale / prior sd)².
     if (prior) lambda = (scale / prior.sd) ** 2;
-    for (let i = 0; i < n; i++) w[i] = mask[i] > 0 ? Math.min(1, (k * scale) / Math.max(Math.abs(r[i]), 1e-300)) : 0;
+    for (let i = 0; i < n; i++) {
+      const z = root ? root[i] * Math.abs(r[i]) : Math.abs(r[i]);
+      const huber = Math.min(1, (k * scale) / Math.max(z, 1e-300));
+      w[i] = mask[i] > 0 ? (pw ? pw[i] * huber : huber) : 0;
+    }
     const fit = weightedLine(xs, ys, w, lambda, prior?.mean ?? 0);
     const moved = Math.abs(fit.intercept - a) + Math.abs(fit.slope - b) * (Math.abs(fit.mx) + 1);
     a = fit.intercept;
@@ -143,7 +156,8 @@ export function huberFit(xs: ArrayLike<number>, ys: ArrayLike<number>, opts: Hub
   let ss = 0;
   for (const i of idx) ss += w[i] * r[i] * r[i];
   const used = idx.length;
-  const sigma2 = used > 2 ? ss / ((sw * (used - 2)) / used) : NaN;
+  // Weighted: unit-weight variance; plain: Huber weights normalised to their mean.
+  const sigma2 = used > 2 ? (pw ? ss / (used - 2) : ss / ((sw * (used - 2)) / used)) : NaN;
   // Penalised normal equations (centred x): diag(Σw, Sxx + λ); λ = 0 is the plain fit.
   const slopeSe = Math.sqrt(sigma2 / (sxx + lambda));
   const interceptSe = Math.sqrt(sigma2 * (1 / sw + (mx * mx) / (sxx + lambda)));
