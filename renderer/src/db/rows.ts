@@ -242,6 +242,8 @@ export interface ExportJobRow {
   progress: number;
   outputs: string[];
   message?: string;
+  /** The analyst agreed to replace files of the same names. */
+  overwrite?: boolean;
   createdAt: number;
   updatedAt: number;
 }

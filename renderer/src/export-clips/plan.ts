@@ -62,15 +62,8 @@ export interface ClipPlan {
 
 export class PlanError extends Error {}
 
-/** Match clock text of event-clock seconds: the second period counts on from 45:00 (Law 7, common practice). */
-export function matchClockText(period: PeriodId, t: number): string {
-  const base = period === 2 ? 45 * 60 : period === 3 ? 90 * 60 : period === 4 ? 105 * 60 : 0;
-  // Tenths cut, not rounded, as a running clock shows them (59.97 s is still 00:59.9).
-  const tenths = Math.floor(Math.max(0, base + t) * 10 + 1e-6);
-  const m = Math.floor(tenths / 600);
-  const rest = tenths - m * 600;
-  return `${String(m).padStart(2, '0')}:${String(Math.floor(rest / 10)).padStart(2, '0')}.${rest % 10}`;
-}
+export { matchClockText } from '../reels/clip-rules.ts';
+import { matchClockText } from '../reels/clip-rules.ts';
 
 /** Tracking clock -> event clock (inverse of the event fit's segment for the period). */
 export function trackingToEventClock(eventFit: ClockFit | undefined, period: PeriodId, tTrk: number): number {
@@ -87,11 +80,11 @@ function footageRate(nominalFps: number) {
 
 export function planClip(clip: ClipRow & { id: number }, index: number, inp: PlanInputs): ClipPlan {
   const where = `clip ${index + 1}${clip.title ? ` "${clip.title}"` : ''}`;
-  const fIn = trackingToFootage(inp.fit, clip.period, clip.from, 0.5);
-  const fOut = trackingToFootage(inp.fit, clip.period, clip.to, 0.5);
-  if (fIn === undefined || fOut === undefined) {
+  const span = footageSpan(inp.fit, clip.period, clip.from, clip.to);
+  if (!span) {
     throw new PlanError(`${where}: period ${clip.period} ${clip.from.toFixed(1)}–${clip.to.toFixed(1)} s is not covered by the footage clock fit; shorten the clip or refit the footage on the Sync screen`);
   }
+  const [fIn, fOut] = span;
   const pts = inp.probe.pts;
   const inFrame = Math.max(0, frameAtOrBefore(pts, fIn));
   const onAtOut = frameAtOrBefore(pts, fOut);
@@ -126,6 +119,30 @@ export function planClip(clip: ClipRow & { id: number }, index: number, inp: Pla
     events,
     nonLive: nonLiveTouched(inT, outT, inp.nonLive, inp.fit),
   };
+}
+
+/**
+ * Footage seconds [in, out] showing tracking span [from, to] of a period. Where the ends fall
+ * in tracking time the footage does not show (a replay replaced live play there), they are
+ * pulled in to the nearest shown moment inside the span; the footage between is kept as it
+ * is (replays included) and flagged by the caller. Undefined when nothing of the span is shown.
+ */
+export function footageSpan(fit: ClockFit, period: PeriodId, from: number, to: number): [number, number] | undefined {
+  let inF: number | undefined;
+  let outF: number | undefined;
+  for (const s of fit.segments) {
+    if (s.period !== period || s.rate <= 0) continue;
+    const a = s.offset + s.rate * s.fromT;
+    const b = s.offset + s.rate * s.toT;
+    const lo = Math.max(a, from);
+    const hi = Math.min(b, to);
+    if (hi <= lo) continue;
+    const fLo = (lo - s.offset) / s.rate;
+    const fHi = (hi - s.offset) / s.rate;
+    if (inF === undefined || fLo < inF) inF = fLo;
+    if (outF === undefined || fHi > outF) outF = fHi;
+  }
+  return inF !== undefined && outF !== undefined && outF > inF ? [inF, outF] : undefined;
 }
 
 function eventTrackingTime(fit: ClockFit | undefined, e: MatchEvent): number {

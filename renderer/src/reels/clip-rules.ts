@@ -89,8 +89,19 @@ export function kindWord(k: string): string {
 /** Title of a clip made from one event, e.g. "Corner · away 7 · 2nd 12:04". */
 export function eventTitle(e: MatchEvent): string {
   const who = [e.team, e.player].filter(Boolean).join(' ');
-  return [kindWord(e.kind), who, `P${e.period} ${clockText(e.t)}`].filter(Boolean).join(' · ');
+  return [kindWord(e.kind), who, matchClockText(e.period, e.t).replace(/\.\d$/, '')].filter(Boolean).join(' · ');
 }
+
+/** Match clock text of event-clock seconds: the second period counts on from 45:00 (Law 7, common practice). */
+export function matchClockText(period: PeriodId, t: number): string {
+  const base = period === 2 ? 45 * 60 : period === 3 ? 90 * 60 : period === 4 ? 105 * 60 : 0;
+  // Tenths cut, not rounded, as a running clock shows them (59.97 s is still 00:59.9).
+  const tenths = Math.floor(Math.max(0, base + t) * 10 + 1e-6);
+  const m = Math.floor(tenths / 600);
+  const rest = tenths - m * 600;
+  return `${String(m).padStart(2, '0')}:${String(Math.floor(rest / 10)).padStart(2, '0')}.${rest % 10}`;
+}
+
 
 /** m:ss of seconds since a period's start. */
 export function clockText(s: number): string {
@@ -190,7 +201,8 @@ export interface NonLiveSpan {
  */
 export function nonLiveTouched(fromF: number, toF: number, intervals: NonLiveSpan[], fit?: ClockFit): NonLiveSpan[] {
   const all = [...intervals, ...(fit ? fitGaps(fit) : [])];
-  return all.filter((n) => n.fromT < toF && n.toT > fromF);
+  // A stretch ending exactly where the clip starts counts: the clip was cut short by it.
+  return all.filter((n) => n.fromT < toF + 0.05 && n.toT > fromF - 0.05);
 }
 
 /** Footage between consecutive segments of a footage fit (nothing there maps to tracking). */

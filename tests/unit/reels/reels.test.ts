@@ -151,6 +151,17 @@ describe('export plan and sidecars', () => {
     expect(truth.footage.fps).toBe(25);
   });
 
+  it('pulls a clip end that falls in a replay gap in to the shown footage, and flags it', () => {
+    const gapFit: ClockFit = { source: 'footage', method: 'huber', segments: [seg(2, 0, 100, -10), seg(2, 110, 200, -20)] };
+    // tracking 88..95 is not shown (footage 98..100 then a 10 s replay, live again from 110 = tracking 90)
+    const p = planClip({ id: 1, projectId: 1, reelId: 1, order: 0, period: 2, from: 95, to: 100, title: 'x' }, 0, { fit: gapFit, probe: { ...probe, pts: Array.from({ length: 6000 }, (_, i) => i / 25), duration: 240 }, tracking: { rate: 25, firstFrame: {} }, events: [], nonLive: [] });
+    expect(p.footage.inT).toBeCloseTo(115, 6);
+    expect(p.nonLive.map((n) => n.kind)).toEqual([]);
+    const q = planClip({ id: 1, projectId: 1, reelId: 1, order: 0, period: 2, from: 87, to: 100, title: 'x' }, 0, { fit: gapFit, probe: { ...probe, pts: Array.from({ length: 6000 }, (_, i) => i / 25), duration: 240 }, tracking: { rate: 25, firstFrame: {} }, events: [], nonLive: [] });
+    expect(q.footage.inT).toBeCloseTo(97, 6);
+    expect(q.nonLive.map((n) => n.kind)).toEqual(['replay']);
+  });
+
   it('refuses a clip the footage fit does not cover, saying which clip and what to do', () => {
     expect(() => planClip({ id: 1, projectId: 1, reelId: 1, order: 0, period: 2, from: 5, to: 9, title: 'Late' }, 3, { fit, probe, tracking: { rate: 25, firstFrame: {} }, events: [], nonLive: [] })).toThrow(/clip 4 "Late".*not covered.*Sync screen/);
   });

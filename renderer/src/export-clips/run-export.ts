@@ -1,0 +1,203 @@
+/**
+ * The export queue: jobs in db.exportJobs run one after the other; each writes one MP4 (and
+ * its WebVTT captions) per clip through the host's atomic save, then the reel's CSV and
+ * JSON sidecars. A job remembers the files it finished, so after a restart it resumes with
+ * the next clip; a cancelled job leaves only whole files (the host writes to a temporary
+ * name and renames at the end; the clip being encoded is never handed to it).
+ *
+ *   const id = await queueExport(db, { projectId, reelId, clipIds, directory });
+ *   await runQueue(db, host, projectId, { onProgress, signalFor });
+ */
+import type { ClockFit, HostApi, MatchEvent } from '../../../shared-types/index.ts';
+import type { WhistlemarkDb } from '../db/database.ts';
+import type { ClipRow, ExportJobRow } from '../db/rows.ts';
+import { loadOverlayData, overlaySources } from '../overlay/data.ts';
+import type { OverlayData } from '../overlay/contract.ts';
+import { createOverlayRenderer } from '../overlay/renderer.ts';
+import { defaultSettings } from '../overlay/style.ts';
+import { ExportCancelled, exportClipEmbedded } from './embedded.ts';
+import { planClip, PlanError, type ClipPlan, type PlanInputs } from './plan.ts';
+import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
+
+export interface ExportContext {
+  inputs: PlanInputs;
+  overlay?: OverlayData;
+  eventFit?: ClockFit;
+  footageUrl: string;
+  footageName: string;
+  size: { width: number; height: number };
+}
+
+/** Everything an export needs from the project, or a message saying what is missing. */
+export async function loadExportContext(db: WhistlemarkDb, host: HostApi, projectId: number): Promise<ExportContext> {
+  const src = await overlaySources(db, projectId);
+  if (!src) throw new Error('export needs tracking and footage in the project: import them on the Sources screen');
+  const footageSource = await db.sources.get(src.footageSourceId);
+  const footage = await db.footage.get(src.footageSourceId);
+  const meta = await db.trackingMeta.get(src.trackingSourceId);
+  if (!footageSource || !footage || !meta) throw new Error('export: the footage or tracking of this project is incomplete; import it again on the Sources screen');
+  const fits = (await db.clockFits.where('projectId').equals(projectId).toArray()).sort((a, b) => b.createdAt - a.createdAt || (b.id ?? 0) - (a.id ?? 0));
+  const fit = fits.find((f) => f.fit.source === 'footage' && f.sourceId === src.footageSourceId)?.fit;
+  if (!fit) throw new Error('export needs the footage clock fit: fit the footage to tracking on the Sync screen first');
+  const eventFit = fits.find((f) => f.fit.source === 'events')?.fit;
+  const events: MatchEvent[] = (await db.events.where('projectId').equals(projectId).toArray()).map((e) => e.current);
+  const nonLive = (await db.nonLive.where('footageSourceId').equals(src.footageSourceId).toArray()).filter((n) => n.projectId === projectId).map((n) => ({ fromT: n.fromT, toT: n.toT, kind: n.kind }));
+  const overlay = await loadOverlayData(db, projectId, src);
+  const [opened] = await host.openPaths([footageSource.path]);
+  return {
+    inputs: {
+      fit,
+      ...(eventFit ? { eventFit } : {}),
+      probe: footage.probe,
+      tracking: { rate: meta.rate, firstFrame: Object.fromEntries(meta.periods.map((p) => [p.period, p.firstFrame])) },
+      events,
+      nonLive,
+    },
+    ...(overlay ? { overlay } : {}),
+    ...(eventFit ? { eventFit } : {}),
+    footageUrl: opened.url,
+    footageName: footageSource.fileName,
+    size: { width: footage.probe.width, height: footage.probe.height },
+  };
+}
+
+/** Plans of the clips in order; a clip that cannot be planned is reported, not skipped silently. */
+export function planClips(ctx: ExportContext, clips: (ClipRow & { id: number })[]): { plans: ClipPlan[]; problems: string[] } {
+  const plans: ClipPlan[] = [];
+  const problems: string[] = [];
+  clips.forEach((c, i) => {
+    try {
+      plans.push(planClip(c, i, ctx.inputs));
+    } catch (e) {
+      if (e instanceof PlanError) problems.push(e.message);
+      else throw e;
+    }
+  });
+  return { plans, problems };
+}
+
+/** File names of a job's outputs: one MP4 + VTT per clip, then the reel's CSV and JSON. */
+export function outputNames(reelTitle: string, plans: ClipPlan[]): { clip: { mp4: string; vtt: string }[]; csv: string; json: string } {
+  const stem = fileStem(reelTitle);
+  return {
+    clip: plans.map((p) => {
+      const base = `${stem}-${String(p.index + 1).padStart(2, '0')}-${fileStem(p.title)}`;
+      return { mp4: `${base}.mp4`, vtt: `${base}.vtt` };
+    }),
+    csv: `${stem}.csv`,
+    json: `${stem}.json`,
+  };
+}
+
+export interface QueueRequest {
+  projectId: number;
+  reelId: number;
+  clipIds: number[];
+  directory: string;
+  overwrite?: boolean;
+}
+
+export async function queueExport(db: WhistlemarkDb, req: QueueRequest): Promise<number> {
+  const now = Date.now();
+  const row: ExportJobRow = { projectId: req.projectId, reelId: req.reelId, clipIds: req.clipIds, state: 'queued', directory: req.directory, path: 'embedded', progress: 0, outputs: [], createdAt: now, updatedAt: now, ...(req.overwrite ? { overwrite: true } : {}) };
+  return (await db.exportJobs.add(row)) as number;
+}
+
+export interface RunHooks {
+  /** Job id, fraction of the job done, seconds left (estimate) and what is being written. */
+  onProgress?: (jobId: number, fraction: number, secondsLeft: number | undefined, doing: string) => void;
+  /** Signal that cancels this job. */
+  signalFor?: (jobId: number) => AbortSignal | undefined;
+}
+
+/** Jobs found 'running' were cut off by a restart: they go back to the queue. */
+export async function requeueInterrupted(db: WhistlemarkDb, projectId: number): Promise<number> {
+  const stuck = (await db.exportJobs.where('state').equals('running').toArray()).filter((j) => j.projectId === projectId);
+  for (const j of stuck) await db.exportJobs.update(j.id!, { state: 'queued', message: 'resumed after a restart', updatedAt: Date.now() });
+  return stuck.length;
+}
+
+let running = false;
+
+/** Runs queued jobs of the project until none is left. Only one runner at a time. */
+export async function runQueue(db: WhistlemarkDb, host: HostApi, projectId: number, hooks: RunHooks = {}): Promise<void> {
+  if (running) return;
+  running = true;
+  try {
+    for (;;) {
+      const next = (await db.exportJobs.where('state').equals('queued').toArray()).filter((j) => j.projectId === projectId).sort((a, b) => a.createdAt - b.createdAt || a.id! - b.id!)[0];
+      if (!next) return;
+      await runJob(db, host, next, hooks);
+    }
+  } finally {
+    running = false;
+  }
+}
+
+async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks: RunHooks): Promise<void> {
+  const id = job.id!;
+  const signal = hooks.signalFor?.(id);
+  const set = (patch: Partial<ExportJobRow>) => db.exportJobs.update(id, { ...patch, updatedAt: Date.now() });
+  await set({ state: 'running' });
+  const outputs = [...job.outputs];
+  try {
+    const reel = await db.reels.get(job.reelId);
+    if (!reel) throw new Error(`reel ${job.reelId} no longer exists; nothing was exported`);
+    const all = (await db.clips.where('reelId').equals(job.reelId).toArray()) as (ClipRow & { id: number })[];
+    const byId = new Map(all.map((c) => [c.id, c]));
+    const clips = (job.clipIds.length ? job.clipIds.map((c) => byId.get(c)).filter((c): c is ClipRow & { id: number } => !!c) : all.sort((a, b) => a.order - b.order));
+    if (!clips.length) throw new Error(`reel "${reel.title}" has no clips to export`);
+    const ctx = await loadExportContext(db, host, job.projectId);
+    const { plans, problems } = planClips(ctx, clips);
+    if (problems.length) throw new Error(problems.join('\n'));
+    const names = outputNames(reel.title, plans);
+    const total = plans.reduce((s, p) => s + p.durationS, 0);
+    let doneS = 0;
+    const t0 = performance.now();
+    const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true }) : undefined;
+    try {
+      for (let i = 0; i < plans.length; i++) {
+        const p = plans[i];
+        const n = names.clip[i];
+        if (outputs.includes(n.mp4)) {
+          doneS += p.durationS;
+          continue; // finished before a restart
+        }
+        const bytes = await exportClipEmbedded({
+          source: ctx.footageUrl,
+          plan: p,
+          pts: ctx.inputs.probe.pts,
+          ...(ctx.overlay && renderer ? { overlay: { data: ctx.overlay, settings: defaultSettings(), renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } } : {}),
+          ...ctx.size,
+          ...(signal ? { signal } : {}),
+          onProgress: (f) => {
+            const frac = total > 0 ? (doneS + f * p.durationS) / total : 0;
+            const spent = (performance.now() - t0) / 1000;
+            hooks.onProgress?.(id, frac, frac > 0.02 ? (spent / frac) * (1 - frac) : undefined, n.mp4);
+          },
+        });
+        if (signal?.aborted) throw new ExportCancelled();
+        await host.saveFile({ suggestedName: n.mp4, directory: job.directory, bytes, overwrite: !!job.overwrite });
+        await host.saveFile({ suggestedName: n.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt([{ ...p }], { titleCardS: 0 })), overwrite: !!job.overwrite });
+        outputs.push(n.mp4, n.vtt);
+        doneS += p.durationS;
+        await set({ outputs: [...outputs], progress: total > 0 ? doneS / total : 1 });
+      }
+    } finally {
+      renderer?.destroy();
+    }
+    const side = reelSidecars(reel.title, plans, { titleCardS: 0, footageFile: ctx.footageName });
+    for (const [name, text] of [
+      [names.csv, side.csv],
+      [names.json, side.json],
+    ] as const) {
+      if (outputs.includes(name)) continue;
+      await host.saveFile({ suggestedName: name, directory: job.directory, bytes: new TextEncoder().encode(text), overwrite: !!job.overwrite });
+      outputs.push(name);
+    }
+    await set({ state: 'done', progress: 1, outputs, message: `${plans.length} clips written to ${job.directory}` });
+  } catch (e) {
+    const cancelled = e instanceof ExportCancelled || signal?.aborted;
+    await set({ state: cancelled ? 'cancelled' : 'failed', outputs, message: cancelled ? 'cancelled; the clip being encoded was not written' : (e as Error).message });
+  }
+}
