@@ -68,7 +68,7 @@ describe('Reels screen', () => {
     await builder.waitFor();
     const corners = truth.restarts.filter((r) => r.kind === 'corner').length;
     await expect.poll(() => builder.getByRole('list', { name: 'Matching events' }).getByRole('listitem').count()).toBe(corners);
-    await builder.getByRole('button', { name: `Add ${corners} clips` }).click();
+    await builder.getByRole('button', { name: corners === 1 ? 'Add 1 clip' : `Add ${corners} clips` }).click();
     const list = page.getByRole('list', { name: 'Clips in order' });
     await expect.poll(() => list.getByRole('listitem').count()).toBe(corners);
     // A note and one more layer on the first clip (each an undoable step).

@@ -14,7 +14,8 @@ import type { ClipRow, ExportJobRow } from '../db/rows.ts';
 import { loadOverlayData, overlaySources } from '../overlay/data.ts';
 import type { OverlayData } from '../overlay/contract.ts';
 import { createOverlayRenderer } from '../overlay/renderer.ts';
-import { defaultSettings } from '../overlay/style.ts';
+import type { OverlaySettings } from '../overlay/contract.ts';
+import { mergeSettings, settingsKey } from '../watch/overlay-settings.ts';
 import { ExportCancelled, exportClipEmbedded } from './embedded.ts';
 import { planClip, PlanError, type ClipPlan, type PlanInputs } from './plan.ts';
 import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
@@ -22,6 +23,8 @@ import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
 export interface ExportContext {
   inputs: PlanInputs;
   overlay?: OverlayData;
+  /** The Watch screen's overlay settings (team styles, trails); each clip chooses its layers. */
+  settings: OverlaySettings;
   eventFit?: ClockFit;
   footageUrl: string;
   footageName: string;
@@ -44,6 +47,7 @@ export async function loadExportContext(db: WhistlemarkDb, host: HostApi, projec
   const nonLive = (await db.nonLive.where('footageSourceId').equals(src.footageSourceId).toArray()).filter((n) => n.projectId === projectId).map((n) => ({ fromT: n.fromT, toT: n.toT, kind: n.kind }));
   const overlay = await loadOverlayData(db, projectId, src);
   const [opened] = await host.openPaths([footageSource.path]);
+  const settings = mergeSettings((await db.settings.get(settingsKey(projectId)))?.value);
   return {
     inputs: {
       fit,
@@ -54,6 +58,7 @@ export async function loadExportContext(db: WhistlemarkDb, host: HostApi, projec
       nonLive,
     },
     ...(overlay ? { overlay } : {}),
+    settings,
     ...(eventFit ? { eventFit } : {}),
     footageUrl: opened.url,
     footageName: footageSource.fileName,
@@ -167,7 +172,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
           source: ctx.footageUrl,
           plan: p,
           pts: ctx.inputs.probe.pts,
-          ...(ctx.overlay && renderer ? { overlay: { data: ctx.overlay, settings: defaultSettings(), renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } } : {}),
+          ...(ctx.overlay && renderer ? { overlay: { data: ctx.overlay, settings: ctx.settings, renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } } : {}),
           ...ctx.size,
           ...(signal ? { signal } : {}),
           onProgress: (f) => {
@@ -195,7 +200,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
       await host.saveFile({ suggestedName: name, directory: job.directory, bytes: new TextEncoder().encode(text), overwrite: !!job.overwrite });
       outputs.push(name);
     }
-    await set({ state: 'done', progress: 1, outputs, message: `${plans.length} clips written to ${job.directory}` });
+    await set({ state: 'done', progress: 1, outputs, message: `${plans.length === 1 ? '1 clip' : `${plans.length} clips`} written to ${job.directory}` });
   } catch (e) {
     const cancelled = e instanceof ExportCancelled || signal?.aborted;
     await set({ state: cancelled ? 'cancelled' : 'failed', outputs, message: cancelled ? 'cancelled; the clip being encoded was not written' : (e as Error).message });

@@ -306,7 +306,7 @@ function ClipBuilder({ events, eventFit, onAdd }: { events: EventRow[]; eventFit
         <div className="actions">
           <span className="muted">{picked.length} events match</span>
           <button className="primary" disabled={!picked.length} onClick={() => onAdd(spansFromEvents(picked.map((e) => e.current), roll, eventFit))}>
-            Add {picked.length} clips
+            Add {picked.length === 1 ? '1 clip' : `${picked.length} clips`}
           </button>
         </div>
       </div>
@@ -568,7 +568,7 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
       {ctxProblem && <p className="error-text">{ctxProblem}</p>}
       {flagged.length > 0 && (
         <p className="warn-text" role="status">
-          {flagged.length} clip{flagged.length > 1 ? 's touch' : ' touches'} footage that is not live play (clips {flagged.map((c) => clips.indexOf(c) + 1).join(', ')}): no overlay is drawn there.
+          {flagged.length === 1 ? `Clip ${clips.indexOf(flagged[0]) + 1} touches` : `${flagged.length} clips (${flagged.map((c) => clips.indexOf(c) + 1).join(', ')}) touch`} footage that is not live play (a replay, half-time or a cut): no overlay is drawn there, and a clip end inside a replay is pulled in to live play.
         </p>
       )}
       {broken.length > 0 && <p className="error-text">{broken.length} clip(s) cannot be exported: {broken.map((c) => planned.get(c.id)).join(' ')}</p>}
@@ -578,7 +578,7 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
           <input value={dir} onChange={(e) => setFolder(e.target.value)} aria-label="Export folder" className="mono" />
         </label>
         <button className="primary" disabled={!clips.length || !exportCtx} onClick={() => void start(false)}>
-          Export reel ({clips.length} clips)
+          Export reel ({clips.length === 1 ? '1 clip' : `${clips.length} clips`})
         </button>
       </div>
       {!!jobs?.length && (
