@@ -58,6 +58,16 @@ async function tableCounts(page: Page, projectId: number): Promise<Record<string
   }, projectId);
 }
 
+/** Ctrl+O with no dialog open; waits until the chooser has listed its first folder (a later
+ * answer to that first listing would otherwise replace the folder typed in). */
+async function openChooser(page: Page) {
+  await page.locator('dialog[open]').waitFor({ state: 'detached' });
+  await page.keyboard.press('Control+o');
+  const chooser = page.getByRole('dialog', { name: 'Open files' });
+  await expect.poll(() => chooser.getByLabel('Folder path').inputValue(), { timeout: 10_000 }).not.toBe('');
+  return chooser;
+}
+
 async function saveThroughDialog(page: Page, label: RegExp, fileName: string, replace = false) {
   const dlg = page.getByRole('dialog', { name: label });
   await dlg.getByLabel('File name').fill(fileName);
@@ -172,8 +182,7 @@ describe('exports and the match project file', () => {
     const before = await tableCounts(page, demoId);
     const options = await page.getByRole('combobox', { name: 'Match project' }).locator('option').count();
 
-    await page.keyboard.press('Control+o');
-    const chooser = page.getByRole('dialog', { name: 'Open files' });
+    const chooser = await openChooser(page);
     await chooser.getByLabel('Folder path').fill(out);
     await chooser.getByRole('button', { name: 'Go', exact: true }).click();
     await chooser.getByRole('option', { name: /demo\.wmatch/ }).click();
@@ -194,8 +203,7 @@ describe('exports and the match project file', () => {
     const bytes = readFileSync(join(out, 'demo.wmatch'));
     writeFileSync(join(out, 'cut.wmatch'), bytes.subarray(0, Math.floor(bytes.length * 0.6)));
     const options = await page.getByRole('combobox', { name: 'Match project' }).locator('option').count();
-    await page.keyboard.press('Control+o');
-    const chooser = page.getByRole('dialog', { name: 'Open files' });
+    const chooser = await openChooser(page);
     await chooser.getByLabel('Folder path').fill(out);
     await chooser.getByRole('button', { name: 'Go', exact: true }).click();
     await chooser.getByRole('option', { name: /cut\.wmatch/ }).click();
