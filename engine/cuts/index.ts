@@ -4,3 +4,4 @@ export * from './cut-detector.ts';
 export * from './scan.ts';
 export * from './anchors.ts';
 export * from './non-live.ts';
+export * from './decode-args.ts';

@@ -15,19 +15,7 @@ import { compiledCoreModule } from '../audio/embedded-core.ts';
 import { findNativeFfmpeg } from '../audio/decode-native.ts';
 import type { DecodeEngine } from '../audio/decode-types.ts';
 
-export const CUT_FRAME_WIDTH = 64;
-export const CUT_FRAME_HEIGHT = 36;
-
-/** ffmpeg arguments shared by both engines (and the browser worker), so their frames are the same. */
-export function lumaFrameArgs(input: string, output: string, width = CUT_FRAME_WIDTH, height = CUT_FRAME_HEIGHT): string[] {
-  return [
-    '-i', input,
-    '-map', '0:v:0', '-an', '-sn', '-dn',
-    '-fps_mode', 'passthrough',
-    '-vf', `scale=${width}:${height}:flags=area,format=gray`,
-    '-f', 'rawvideo', output,
-  ];
-}
+export { CUT_FRAME_HEIGHT, CUT_FRAME_WIDTH, lumaFrameArgs } from '../../../engine/cuts/decode-args.ts';
 
 export interface RawDecodeOptions {
   onBytes: (bytes: Uint8Array) => void;
