@@ -12,3 +12,20 @@ export { ballTouches, type BallTouch } from './refine/kicks.ts';
 export { chooseMonotone, type EventOptions, type Option } from './refine/choose.ts';
 export { buildScenes, refineEvents, type PeriodScene } from './refine/refine.ts';
 export { syncMatch, type SyncOptions, type SyncResult } from './sync.ts';
+export {
+  applyHomography,
+  homogeneousW,
+  invertHomography,
+  composeHomography,
+  reprojectionErrors,
+  solveHomography,
+  checkRegistrationInput,
+  GeometryError,
+  COLLINEAR_TOLERANCE,
+  type Vec2,
+  type Homography,
+  type GeometryProblem,
+} from './geometry/homography.ts';
+export { fitHomography, type HomographyFit, type RansacOptions } from './geometry/ransac.ts';
+export { refineHomography } from './geometry/refine.ts';
+export { seededRandom } from './geometry/prng.ts';
