@@ -47,6 +47,16 @@ export interface DirectoryListing {
   entries: DirectoryEntry[];
 }
 
+/**
+ * What the player plays for an opened footage file: the file itself, or (MPEG-TS, which
+ * Chromium cannot open) an MP4 copy with the same frames made without re-encoding.
+ */
+export interface PlayableFootage extends OpenedFile {
+  remuxed: boolean;
+  /** Media time of the first frame in the played file (footage time 0), when known. */
+  mediaOffset?: number;
+}
+
 export type FilePurpose = 'tracking' | 'events' | 'footage' | 'mapping' | 'project' | 'any';
 
 export interface DemoMatch {
@@ -85,6 +95,8 @@ export interface HostApi {
   demoMatch(): Promise<DemoMatch | null>;
   /** Container, codecs and the real per-frame PTS table of an opened footage file. */
   probeFootage(fileId: string): Promise<FootageProbe>;
+  /** The file the <video> element should play for an opened footage file (see PlayableFootage). */
+  playableFootage(fileId: string): Promise<PlayableFootage>;
   /** Atomic write (temporary file, flush, rename); never overwrites without `overwrite`. */
   saveFile(req: SaveRequest): Promise<SaveResult>;
 }
@@ -97,6 +109,7 @@ export const HOST_CALLS = [
   'openPaths',
   'demoMatch',
   'probeFootage',
+  'playableFootage',
   'saveFile',
 ] as const satisfies readonly (keyof HostApi)[];
 export type HostCall = (typeof HOST_CALLS)[number];

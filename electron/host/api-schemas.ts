@@ -28,6 +28,7 @@ export const HOST_ARG_SCHEMAS = {
   openPaths: z.tuple([z.array(path).min(1, 'needs at least one path').max(1000)]),
   demoMatch: z.tuple([]),
   probeFootage: z.tuple([fileId]),
+  playableFootage: z.tuple([fileId]),
   saveFile: z.tuple([saveRequestSchema]),
 } satisfies Record<HostCall, z.ZodType>;
 

@@ -4,13 +4,14 @@
  * native dialogs exist, and how calls arrive; everything else is here.
  */
 import { readFile } from 'node:fs/promises';
-import { homedir, userInfo } from 'node:os';
-import { basename, dirname } from 'node:path';
+import { homedir, tmpdir, userInfo } from 'node:os';
+import { basename, dirname, join } from 'node:path';
 import type { FootageProbe } from '../../shared-types/domain.ts';
-import type { FilePurpose, HostApi, HostInfo, HostMode, OpenedFile, SaveRequest } from '../../shared-types/host-api.ts';
+import type { FilePurpose, HostApi, HostInfo, HostMode, OpenedFile, PlayableFootage, SaveRequest } from '../../shared-types/host-api.ts';
 import { saveAtomic } from './atomic-save.ts';
 import { openDemoMatch } from './demo.ts';
 import { listDirectory } from './directory.ts';
+import { playableCopy } from './footage/playable.ts';
 import { probeFootageFile } from './footage/probe.ts';
 import { OpenedFiles } from './opened-files.ts';
 
@@ -29,6 +30,8 @@ export interface HostServiceOptions {
   crossOriginIsolated?: boolean;
   /** Version to report; package.json's when absent. */
   appVersion?: string;
+  /** Where playable MP4 copies of MPEG-TS footage are kept (default: the system's temporary folder). */
+  playableCacheDir?: string;
 }
 
 export interface HostService {
@@ -57,6 +60,7 @@ export function createHostService(opts: HostServiceOptions): HostService {
   const files = new OpenedFiles(opts.fileUrl);
   const probes = new Map<string, { mtimeMs: number; size: number; probe: Promise<FootageProbe> }>();
   let lastSaveDirectory: string | undefined;
+  const playables = new Map<string, Promise<PlayableFootage>>();
 
   const api: HostApi = {
     async info(): Promise<HostInfo> {
@@ -95,6 +99,27 @@ export function createHostService(opts: HostServiceOptions): HostService {
       probes.set(fileId, { mtimeMs: now.mtimeMs, size: now.size, probe });
       probe.catch(() => probes.delete(fileId));
       return probe;
+    },
+
+    async playableFootage(fileId): Promise<PlayableFootage> {
+      const file = files.get(fileId);
+      if (!file) throw new Error(`playableFootage: no opened file has id ${fileId}; open the footage first`);
+      const now = await files.open(file.path);
+      const key = `${fileId}\0${now.size}\0${now.mtimeMs}`;
+      let job = playables.get(key);
+      if (!job) {
+        job = (async () => {
+          const probe = await api.probeFootage(fileId);
+          const copy = await playableCopy(now.path, probe, opts.playableCacheDir ?? join(tmpdir(), 'whistlemark-playable'));
+          if (!copy.remuxed) return { ...now, remuxed: false };
+          const opened = await files.open(copy.path);
+          // The analyst sees the original's name and path; only the URL points at the copy.
+          return { ...now, url: opened.url, remuxed: true, mediaOffset: copy.mediaOffset };
+        })();
+        playables.set(key, job);
+        job.catch(() => playables.delete(key));
+      }
+      return job;
     },
 
     async saveFile(req: SaveRequest) {

@@ -43,7 +43,7 @@ class NodeFileReaderSync {
   }
 }
 
-async function run({ inputPath, args, outputName, wasmModule }) {
+async function run({ inputPath, args, outputName, outputBinary, wasmModule }) {
   const corePath = require.resolve('@ffmpeg/core');
   const wasmPath = corePath.replace(/ffmpeg-core\.js$/, 'ffmpeg-core.wasm');
   globalThis.self = globalThis;
@@ -75,7 +75,9 @@ async function run({ inputPath, args, outputName, wasmModule }) {
     let output = null;
     if (outputName) {
       try {
-        output = core.FS.readFile(outputName, { encoding: 'utf8' });
+        // A binary output (a remuxed MP4) comes back as bytes, a text one (framecrc) as text.
+        output = outputBinary ? null : core.FS.readFile(outputName, { encoding: 'utf8' });
+        if (outputBinary) return { code, log, output: null, binary: core.FS.readFile(outputName) };
       } catch {
         output = null;
       }

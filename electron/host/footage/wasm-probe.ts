@@ -17,6 +17,8 @@ interface WorkerResult {
   code: number;
   log: string[];
   output: string | null;
+  /** The output file's bytes, when asked for with `{ binary: true }`. */
+  binary?: Uint8Array | null;
 }
 
 const workerUrl = new URL('./wasm-ffmpeg-worker.mjs', import.meta.url);
@@ -33,10 +35,10 @@ function coreModule(): Promise<WebAssembly.Module> {
 }
 
 /** Runs ffmpeg (wasm) on one file; `{input}` in args stands for the mounted file. */
-export async function runWasmFfmpeg(inputPath: string, args: string[], outputName?: string): Promise<WorkerResult> {
+export async function runWasmFfmpeg(inputPath: string, args: string[], outputName?: string, opts: { binary?: boolean } = {}): Promise<WorkerResult> {
   const wasmModule = await coreModule();
   return new Promise((resolve, reject) => {
-    const worker = new Worker(workerUrl, { workerData: { inputPath, args, outputName, wasmModule } });
+    const worker = new Worker(workerUrl, { workerData: { inputPath, args, outputName, outputBinary: Boolean(opts.binary), wasmModule } });
     let settled = false;
     worker.once('message', (m: { ok: boolean; result?: WorkerResult; error?: string }) => {
       settled = true;

@@ -65,6 +65,7 @@ export function createHttpHost(opts: HttpHostOptions): HostApi {
     openPaths: (paths) => call('openPaths', [paths]),
     demoMatch: () => call('demoMatch', []),
     probeFootage: (fileId) => call('probeFootage', [fileId]),
+    playableFootage: (fileId) => call('playableFootage', [fileId]),
     saveFile: async (req: SaveRequest) => {
       const { bytes, ...meta } = req;
       const res = await doFetch(`${base}/api/saveFile`, {

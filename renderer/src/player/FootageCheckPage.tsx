@@ -48,7 +48,7 @@ function Facts({ control, probe, name }: { control: FootagePlayerControl | null;
   }, [control]);
   return (
     <p className="muted mono small" data-testid="footage-facts">
-      {name} · {probe.container} {probe.videoCodec} {probe.width}×{probe.height} · {probe.frameCount} frames · nominal {probe.nominalFps} fps{probe.variableRate ? ` · variable rate (measured ${probe.measuredFps.toFixed(3)})` : ''} · first PTS {probe.startTime.toFixed(6)} s
+      {name} · {probe.container} {probe.videoCodec} {probe.width}×{probe.height} · {probe.frameCount} frames · nominal {+probe.nominalFps.toFixed(3)} fps{probe.variableRate ? ` · variable rate (measured ${probe.measuredFps.toFixed(3)})` : ''} · first PTS {probe.startTime.toFixed(6)} s
       {offset !== undefined && ` · media offset ${offset.toFixed(6)} s`}
     </p>
   );
@@ -56,14 +56,15 @@ function Facts({ control, probe, name }: { control: FootagePlayerControl | null;
 
 function ByPath({ path }: { path: string }) {
   const { host } = useServices();
-  const [state, setState] = useState<{ src: string; probe: FootageProbe; name: string } | { error: string }>();
+  const [state, setState] = useState<{ src: string; mediaOffset?: number; probe: FootageProbe; name: string } | { error: string }>();
   const [control, setControl] = useState<FootagePlayerControl | null>(null);
   useEffect(() => {
     let stop = false;
     (async () => {
       const [file] = await host.openPaths([path]);
       const probe = await host.probeFootage(file.fileId);
-      if (!stop) setState({ src: file.url, probe, name: file.name });
+      const played = await host.playableFootage(file.fileId);
+      if (!stop) setState({ src: played.url, mediaOffset: played.mediaOffset, probe, name: played.remuxed ? `${file.name} (played from an MP4 copy)` : file.name });
     })().catch((e: Error) => !stop && setState({ error: `${path}: ${e.message}` }));
     return () => {
       stop = true;
@@ -76,6 +77,7 @@ function ByPath({ path }: { path: string }) {
       <Facts control={control} probe={state.probe} name={state.name} />
       <FootagePlayer
         src={state.src}
+        mediaOffset={state.mediaOffset}
         probe={state.probe}
         onControl={(c) => {
           setControl(c);
@@ -96,6 +98,7 @@ function BySource({ projectId, sourceId }: { projectId: number; sourceId: number
       <Facts control={control} probe={f.probe} name={f.fileName ?? ''} />
       <FootagePlayer
         src={f.src}
+        mediaOffset={f.mediaOffset}
         probe={f.probe}
         clocks={f.clocks}
         onControl={(c) => {

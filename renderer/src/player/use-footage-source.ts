@@ -5,7 +5,7 @@
  * event log fit, the tracking layout). Re-renders when a newer fit is stored.
  *
  *   const f = useFootageSource(projectId, sourceId);
- *   f.src && f.probe && <FootagePlayer src={f.src} probe={f.probe} clocks={f.clocks} />
+ *   f.src && f.probe && <FootagePlayer src={f.src} mediaOffset={f.mediaOffset} probe={f.probe} clocks={f.clocks} />
  */
 import { useEffect, useMemo, useState } from 'react';
 import type { FootageProbe } from '../../../shared-types/index.ts';
@@ -16,6 +16,10 @@ import type { MatchClocks } from './clocks.ts';
 
 export interface FootageSourceState {
   src?: string;
+  /** Media time of footage time 0 in the played file, when the host knows it (pass to <FootagePlayer mediaOffset>). */
+  mediaOffset?: number;
+  /** True when the played file is an MP4 copy of the original (MPEG-TS). */
+  remuxed?: boolean;
   probe?: FootageProbe;
   clocks: MatchClocks;
   fileName?: string;
@@ -47,7 +51,7 @@ export function useFootageSource(projectId: number, footageSourceId: number | un
   const fit = useLive(() => newestFit(db, projectId, 'footage', footageSourceId), [projectId, footageSourceId]);
   const eventFit = useLive(() => newestFit(db, projectId, 'events'), [projectId]);
   const tracking = useLive(() => trackingClock(db, projectId), [projectId]);
-  const [src, setSrc] = useState<string>();
+  const [played, setPlayed] = useState<{ src: string; mediaOffset?: number; remuxed: boolean }>();
   const [error, setError] = useState<string>();
   const path = source?.path;
   useEffect(() => {
@@ -56,12 +60,14 @@ export function useFootageSource(projectId: number, footageSourceId: number | un
     setError(undefined);
     host
       .openPaths([path])
-      .then((f) => !stop && setSrc(f[0]?.url))
+      // MPEG-TS plays through an MP4 copy with the same frames (the host makes it once).
+      .then((f) => host.playableFootage(f[0].fileId))
+      .then((p) => !stop && setPlayed({ src: p.url, mediaOffset: p.mediaOffset, remuxed: p.remuxed }))
       .catch((e: Error) => !stop && setError(`The footage ${path} could not be opened: ${e.message}. Was it moved? Open it again on the Sources screen.`));
     return () => {
       stop = true;
     };
   }, [host, path]);
   const clocks = useMemo<MatchClocks>(() => ({ fit, eventFit, tracking }), [fit, eventFit, tracking]);
-  return { src, probe, clocks, fileName: source?.fileName, error };
+  return { src: played?.src, mediaOffset: played?.mediaOffset, remuxed: played?.remuxed, probe, clocks, fileName: source?.fileName, error };
 }
