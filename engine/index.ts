@@ -29,3 +29,6 @@ export {
 export { fitHomography, type HomographyFit, type RansacOptions } from './geometry/ransac.ts';
 export { refineHomography } from './geometry/refine.ts';
 export { seededRandom } from './geometry/prng.ts';
+export { pitchModel, LAW1_MARKINGS, type PitchModel, type PitchMarking, type PitchLandmark, type MarkingKind } from './geometry/pitch-model.ts';
+export { projectPolyline } from './geometry/projection.ts';
+export { homographyAt, interpolateHomography, type RegistrationKey, type FrameSize } from './geometry/keyframes.ts';
