@@ -158,6 +158,8 @@ export interface AnchorRow {
   origin?: 'detected' | 'analyst' | 'accepted';
   /** Footage anchors: the row id of the tracking anchor it is paired with in the fit. */
   pairedWith?: number;
+  /** Footage anchors: the paired tracking anchor's own id (Anchor.id), which survives a re-run of the analysis that renews the row ids. */
+  pairedAnchorId?: string;
   /** Left out of the fit by the analyst (still shown). */
   excluded?: boolean;
 }

@@ -1,0 +1,133 @@
+/**
+ * The Sync screen on the demo match in Debian Chromium. Reference: the simulator's truth
+ * (fixtures/demo/truth.json). The analyst marks each period's kick-off at the frame the
+ * truth puts the kick in, marks the whistles (standing in for the whistle detector, which
+ * is not wired to this screen yet) at their true onsets, accepts the proposed pairings,
+ * and the footage ↔ tracking map stored in IndexedDB must be within one footage frame
+ * (40 ms) of the truth at every truth anchor (every whistle and every restart in live
+ * footage). Then: still there after a relaunch; Ctrl+Z takes back the last change.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { footageToTracking } from '../../engine/fit/footage-map.ts';
+import type { ClockFit } from '../../shared-types/index.ts';
+import { demoTruth, FPS, firstFrameAfter, truthAnchors } from '../unit/footage-sync/demo-case.ts';
+import { shot, startApp, type RunningApp } from './harness.ts';
+
+let app: RunningApp;
+beforeAll(async () => {
+  app = await startApp();
+});
+afterAll(async () => {
+  await app?.close();
+});
+
+interface Stored { fits: ClockFit[]; footageAnchors: { kind: string; t: number; paired: boolean }[]; tracking: number }
+async function stored(page: Page): Promise<Stored> {
+  return page.evaluate(
+    () =>
+      new Promise<Stored>((resolve, reject) => {
+        const open = indexedDB.open('whistlemark');
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const db = open.result;
+          const tx = db.transaction(['anchors', 'clockFits'], 'readonly');
+          const a = tx.objectStore('anchors').getAll();
+          const f = tx.objectStore('clockFits').getAll();
+          tx.oncomplete = () => {
+            const anchors = a.result as { anchor: { source: string; kind: string; t: number }; pairedAnchorId?: string }[];
+            resolve({
+              fits: (f.result as { fit: ClockFit }[]).map((r) => r.fit).filter((x) => x.source === 'footage'),
+              footageAnchors: anchors.filter((r) => r.anchor.source === 'footage').map((r) => ({ kind: r.anchor.kind, t: r.anchor.t, paired: !!r.pairedAnchorId })),
+              tracking: anchors.filter((r) => r.anchor.source === 'tracking').length,
+            });
+            db.close();
+          };
+        };
+      }),
+  );
+}
+
+async function goToFrame(page: Page, frame: number) {
+  const player = page.getByRole('region', { name: 'Footage player (Sync)' });
+  await player.getByRole('combobox', { name: 'Clock' }).selectOption('frame');
+  const field = player.getByRole('form', { name: 'Go to a moment' }).locator('input');
+  await field.fill(String(frame));
+  await field.press('Enter');
+  await page.waitForFunction((f) => document.querySelector('[data-testid="readout-frame"]')?.textContent?.startsWith(`${f} /`), frame, { timeout: 20_000 });
+}
+
+async function markAt(page: Page, frame: number, key: string, count: number) {
+  await goToFrame(page, frame);
+  await page.keyboard.press(key);
+  await expect.poll(async () => (await stored(page)).footageAnchors.length, { timeout: 10_000 }).toBe(count);
+}
+
+function errors(fit: ClockFit) {
+  return truthAnchors().map((a) => {
+    const m = footageToTracking(fit, a.tFootage);
+    return { what: a.what, e: m && m.period === a.period ? m.t - a.tTracking : Infinity };
+  });
+}
+
+describe('Sync on the demo match', () => {
+  it('two kick-offs marked and the proposals accepted: the stored fit is within one frame of the truth everywhere; it survives a relaunch; undo takes back the last step', async () => {
+    const { page } = app;
+    await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 120_000 });
+    await page.keyboard.press('Alt+2');
+    await page.getByRole('region', { name: 'Sync' }).waitFor();
+    // The automatic analysis stores the tracking restarts the kick-offs pair with.
+    await expect.poll(async () => (await stored(page)).tracking, { timeout: 120_000 }).toBeGreaterThan(10);
+    await page.waitForFunction(() => /^\d+ \//.test(document.querySelector('[data-testid="readout-frame"]')?.textContent ?? ''), null, { timeout: 60_000 });
+
+    // 1. Each period's kick-off: the first frame showing the ball played (from the truth).
+    const kicks = demoTruth.periods.map((p) => firstFrameAfter(demoTruth.restarts.find((r) => r.kind === 'kick_off' && r.period === p.period)!.playedT));
+    let n = 0;
+    for (const f of kicks) await markAt(page, f, '1', ++n);
+    let s = await stored(page);
+    expect(s.footageAnchors.every((a) => a.paired)).toBe(true);
+    expect(s.fits.length).toBe(1);
+    const afterKicks = errors(s.fits[0]);
+    console.log(`kick-offs only: worst |error| ${(Math.max(...afterKicks.map((x) => Math.abs(x.e))) * 1000).toFixed(1)} ms over ${afterKicks.length} truth anchors`);
+
+    // 2. Whistles marked at their onsets (frame on screen at the onset), outside non-live footage.
+    const whistles = (demoTruth.whistles ?? []).filter((w) => !(demoTruth.nonLive ?? []).some((x) => w.footageT >= x.fromT && w.footageT < x.toT));
+    for (const w of whistles) await markAt(page, Math.floor(w.footageT * FPS + 1e-9), 'w', ++n);
+    const list = page.getByTestId('proposals').locator('li');
+    // Six on the demo (as in tests/unit/footage-sync): two penalties, three free kicks, the kick-off after the goal.
+    await expect.poll(() => list.count(), { timeout: 10_000 }).toBe(6);
+    const proposed = await list.allTextContents();
+    console.log(`proposed pairings:\n  ${proposed.join('\n  ')}`);
+    await shot(page, 'sync-proposals');
+
+    // 3. Accept all shown (Shift+A).
+    await page.keyboard.press('Shift+A');
+    await expect.poll(async () => (await stored(page)).footageAnchors.filter((a) => a.paired).length, { timeout: 10_000 }).toBe(2 + proposed.length);
+    s = await stored(page);
+    expect(s.fits.length).toBe(1);
+    const errs = errors(s.fits[0]);
+    const worst = errs.reduce((a, b) => (Math.abs(b.e) > Math.abs(a.e) ? b : a));
+    console.log(`after accepting ${proposed.length} pairings: worst ${(worst.e * 1000).toFixed(1)} ms (${worst.what}), rms ${(Math.sqrt(errs.reduce((q, x) => q + x.e * x.e, 0) / errs.length) * 1000).toFixed(1)} ms over ${errs.length} truth anchors`);
+    for (const x of errs) expect(Math.abs(x.e), x.what).toBeLessThanOrEqual(1 / FPS);
+    expect(await page.getByTestId('footage-fit').locator('tbody tr').count()).toBe(2);
+    await shot(page, 'sync-fitted');
+
+    // 4. Relaunch on the same profile: anchors and fit are still there and shown.
+    await app.relaunch();
+    const p2 = app.page;
+    await p2.getByRole('region', { name: 'Sync' }).waitFor({ timeout: 60_000 });
+    const again = await stored(p2);
+    expect(again.footageAnchors.length).toBe(n);
+    expect(again.fits).toEqual(s.fits);
+    await p2.getByTestId('footage-fit').waitFor();
+
+    // 5. Ctrl+Z: the acceptance is undone (only the two kick-offs stay paired), and the fit with it.
+    await p2.locator('body').click({ position: { x: 5, y: 5 } });
+    await p2.keyboard.press('Control+z');
+    await expect.poll(async () => (await stored(p2)).footageAnchors.filter((a) => a.paired).length, { timeout: 10_000 }).toBe(2);
+    const undone = await stored(p2);
+    expect(undone.fits[0].segments.flatMap((x) => x.points).length).toBe(2);
+    expect(app.outsideRequests).toEqual([]);
+    expect(app.pageErrors).toEqual([]);
+  });
+});
