@@ -75,7 +75,7 @@ describe('Sync on the demo match', () => {
     const { page } = app;
     await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 120_000 });
     await page.keyboard.press('Alt+2');
-    await page.getByRole('region', { name: 'Sync' }).waitFor();
+    await page.getByRole('region', { name: 'Sync', exact: true }).waitFor();
     // The automatic analysis stores the tracking restarts the kick-offs pair with.
     await expect.poll(async () => (await stored(page)).tracking, { timeout: 120_000 }).toBeGreaterThan(10);
     await page.waitForFunction(() => /^\d+ \//.test(document.querySelector('[data-testid="readout-frame"]')?.textContent ?? ''), null, { timeout: 60_000 });
@@ -115,7 +115,7 @@ describe('Sync on the demo match', () => {
     // 4. Relaunch on the same profile: anchors and fit are still there and shown.
     await app.relaunch();
     const p2 = app.page;
-    await p2.getByRole('region', { name: 'Sync' }).waitFor({ timeout: 60_000 });
+    await p2.getByRole('region', { name: 'Sync', exact: true }).waitFor({ timeout: 60_000 });
     const again = await stored(p2);
     expect(again.footageAnchors.length).toBe(n);
     expect(again.fits).toEqual(s.fits);
