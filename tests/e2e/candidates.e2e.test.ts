@@ -126,6 +126,14 @@ describe('Find candidates in the app (embedded ffmpeg core in a worker, range re
     expect(back.anchors.map((a) => a.id).sort()).toEqual(before.anchors.map((a) => a.id).sort());
   });
 
+  it('on the reference clip made by Debian ffmpeg (bright test patterns): the known cuts, as the Node path finds them', async () => {
+    // fixtures/reference/make-cuts.sh: new shots start at frames 50, 100, 150, 190, 240.
+    const r = await call<{ cuts: { frame: number; t: number }[]; frames: number }>('scanFile', join(ROOT, 'fixtures/reference/cuts.mp4'));
+    expect(r.frames).toBe(290);
+    expect(r.cuts.map((c) => c.frame)).toEqual([50, 100, 150, 190, 240]);
+    expect(r.cuts.map((c) => c.t)).toEqual([2, 4, 6, 7.6, 9.6]);
+  });
+
   it('made no request outside the local host and no page errors', () => {
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);

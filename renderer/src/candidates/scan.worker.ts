@@ -24,7 +24,7 @@ interface Core {
     mount(type: unknown, opts: unknown, where: string): void;
     filesystems: { WORKERFS: { reader: unknown } };
     makedev(ma: number, mi: number): number;
-    registerDevice(dev: number, ops: { open(): void; close(): void; write(s: unknown, buf: Uint8Array, off: number, len: number): number }): void;
+    registerDevice(dev: number, ops: { open(): void; close(): void; write(s: unknown, buf: Int8Array | Uint8Array, off: number, len: number): number }): void;
     mkdev(p: string, dev: number): void;
   };
   setLogger(f: (e: { type: string; message: string }) => void): void;
@@ -79,7 +79,8 @@ async function scan(req: ScanRequest): Promise<void> {
     open() {},
     close() {},
     write(_s, buffer, offset, length) {
-      sink(buffer.subarray(offset, offset + length));
+      // The core hands its heap as an Int8Array: view the bytes unsigned (grey levels > 127).
+      sink(new Uint8Array(buffer.buffer, buffer.byteOffset + offset, length));
       return length;
     },
   });

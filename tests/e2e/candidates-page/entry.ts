@@ -51,6 +51,16 @@ const api = {
       return { ok: false as const, name: (e as Error).name, message: (e as Error).message, progress };
     }
   },
+  /** Imports another footage file into a project of its own and scans it (cuts only matter). */
+  async scanFile(path: string) {
+    await db.open();
+    const [file] = await host.openPaths([path]);
+    const now = Date.now();
+    const projectId = (await db.projects.add({ title: `Check ${file.name}`, createdAt: now, updatedAt: now })) as number;
+    const sourceId = await importFootage(db, host, projectId, file, 'tester');
+    const r = await scanFootage(db, projectId, sourceId, { user: 'tester' });
+    return { cuts: r.cuts, frames: r.timings.frames };
+  },
   stored,
   async undo() {
     const { projectId } = await setUp();
