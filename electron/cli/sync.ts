@@ -1,9 +1,11 @@
 /**
- * `whistlemark sync --events FILE --tracking FILE [--map MAPPING.json] --out DIR`: puts the
+ * `whistlemark sync --events FILE --tracking FILE [--map MAPPING.json] --out DIR`
+ * `whistlemark sync TRACKING EVENTS [FOOTAGE] --project OUT.wmatch [--replace]`: puts the
  * event log on the tracking clock with no hint (engine/sync.ts) and writes
  * DIR/fit.json and DIR/events.corrected.csv, plus a summary on stdout. Both files are
  * written to temporary names first and renamed only when both are complete, so a
- * failure never leaves half an answer behind.
+ * failure never leaves half an answer behind. With --project it writes a whole match
+ * project file (engine/project-file) the app opens for review, atomically.
  */
 import { mkdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
@@ -13,8 +15,16 @@ import type { EventMapping, ImportProblem, ImportResult, TrackingMapping } from 
 import { detectSource, importEvents, importTracking } from '../../engine/import/index.ts';
 import { syncMatch, type SyncResult } from '../../engine/sync.ts';
 import { readHead, readTextChunks } from '../host/text-stream.ts';
+import { open as openFile } from 'node:fs/promises';
+import { dirname, resolve } from 'node:path';
+import { createHash } from 'node:crypto';
+import { FILE_EXTENSION, MIB, writeProjectFile, type FootageReference } from '../../engine/project-file/index.ts';
+import { matchTables } from '../../engine/project-file/match-tables.ts';
+import { saveAtomic } from '../host/atomic-save.ts';
+import { probeFootageFile } from '../host/footage/probe.ts';
 
 const usage = `usage: whistlemark sync --events FILE --tracking FILE [--map MAPPING.json] --out DIR
+       whistlemark sync TRACKING EVENTS [FOOTAGE] [--map MAPPING.json] --project OUT.wmatch [--replace]
 
 Finds restarts in both sources, the clock offset and drift of the event log against the
 tracking (per period, split at clock jumps), and a proposed time (and, for restarts,
@@ -22,7 +32,11 @@ place) for every logged event.
   --events FILE     the event log (CSV or JSON)
   --tracking FILE   the tracking file (CSV long or wide, or JSON Lines)
   --map FILE        JSON { "tracking"?: mapping, "events"?: mapping } overriding detection
-  --out DIR         where fit.json and events.corrected.csv are written (created if needed)`;
+  --out DIR         where fit.json and events.corrected.csv are written (created if needed)
+  --project FILE    write a match project file (.wmatch) the app opens for review:
+                    sources, tracking, events, anchors, the clock fit and the proposals
+  --replace         replace an existing project file (otherwise it is left alone)
+Files may also be named in order: TRACKING EVENTS [FOOTAGE].`;
 
 /** A failure the analyst can act on: printed as is, exit code 1. */
 class UserError extends Error {}
@@ -31,7 +45,7 @@ export const command: CliCommand = {
   summary: 'align an event log to tracking: clock fit and proposed event corrections',
   usage,
   async run(args) {
-    let opts: { events: string; tracking: string; map?: string; out: string };
+    let opts: SyncArgs;
     try {
       opts = parseArgs(args);
     } catch (e) {
@@ -43,8 +57,14 @@ export const command: CliCommand = {
       const tracking = await load(opts.tracking, 'tracking', mapping.tracking, importTracking);
       const events = await load(opts.events, 'events', mapping.events, importEvents);
       const result = syncMatch(tracking, events);
-      await writeOutputs(opts.out, result, events, tracking.rate);
-      console.log(summary(result, events, opts.out));
+      if (opts.out) {
+        await writeOutputs(opts.out, result, events, tracking.rate);
+        console.log(summary(result, events, opts.out));
+      }
+      if (opts.project) {
+        const written = await writeProject(opts, tracking, events, result, mapping);
+        console.log(`${opts.out ? '' : summary(result, events, '').replace(/\nwrote .*$/, '') + '\n'}wrote ${written.path} (${(written.bytesWritten / MIB).toFixed(1)} MiB): open it in Whistlemark with Project ▸ Open match project.`);
+      }
       return 0;
     } catch (e) {
       if (e instanceof UserError) {
@@ -56,18 +76,45 @@ export const command: CliCommand = {
   },
 };
 
-function parseArgs(args: string[]) {
-  const out: Record<string, string> = {};
+interface SyncArgs {
+  events: string;
+  tracking: string;
+  footage?: string;
+  map?: string;
+  out?: string;
+  project?: string;
+  replace?: boolean;
+}
+
+function parseArgs(args: string[]): SyncArgs {
+  const out: Record<string, string | boolean> = {};
+  const positional: string[] = [];
   for (let i = 0; i < args.length; i++) {
     const a = args[i];
-    if (!['--events', '--tracking', '--map', '--out'].includes(a)) throw new Error(`unknown argument "${a}"`);
+    if (a === '--replace') {
+      out.replace = true;
+      continue;
+    }
+    if (!a.startsWith('--')) {
+      positional.push(a);
+      continue;
+    }
+    if (!['--events', '--tracking', '--footage', '--map', '--out', '--project'].includes(a)) throw new Error(`unknown argument "${a}"`);
     const v = args[i + 1];
     if (v === undefined || v.startsWith('--')) throw new Error(`${a} needs a value`);
     out[a.slice(2)] = v;
     i++;
   }
-  for (const need of ['events', 'tracking', 'out']) if (!out[need]) throw new Error(`--${need} is required`);
-  return out as { events: string; tracking: string; map?: string; out: string };
+  if (positional.length > 3) throw new Error(`too many file names (${positional.join(', ')}); give TRACKING EVENTS [FOOTAGE]`);
+  for (const [i, key] of (['tracking', 'events', 'footage'] as const).entries()) {
+    if (positional[i] === undefined) continue;
+    if (out[key]) throw new Error(`the ${key} file is named twice (--${key} and in order)`);
+    out[key] = positional[i];
+  }
+  for (const need of ['events', 'tracking']) if (!out[need]) throw new Error(`--${need} is required`);
+  if (!out.out && !out.project) throw new Error('--out DIR or --project FILE is required');
+  if (out.footage && !out.project) throw new Error('FOOTAGE is only used with --project');
+  return out as unknown as SyncArgs;
 }
 
 async function readMapping(path: string): Promise<{ tracking?: TrackingMapping; events?: EventMapping }> {
@@ -194,6 +241,68 @@ async function writeOutputs(dir: string, result: SyncResult, log: EventLog, _rat
   } catch (e) {
     for (const f of files) await rm(join(dir, f.name + tag), { force: true });
     throw new UserError(`could not write into ${dir}: ${(e as Error).message}. Nothing was replaced.`);
+  }
+}
+
+/** Size + SHA-256 of the first and last MiB (the app checks the same when it opens the project). */
+async function fingerprint(path: string, size: number) {
+  const h = await openFile(path, 'r');
+  try {
+    const read = async (pos: number) => {
+      const len = Math.min(MIB, size - pos);
+      const buf = Buffer.alloc(Math.max(0, len));
+      if (len > 0) await h.read(buf, 0, len, pos);
+      return createHash('sha256').update(buf).digest('hex');
+    };
+    return { size, headSha256: await read(0), tailSha256: await read(Math.max(0, size - MIB)) };
+  } finally {
+    await h.close();
+  }
+}
+
+async function fileInfo(path: string, mapping?: unknown) {
+  const abs = resolve(path);
+  const s = await stat(abs);
+  return { fileName: basename(abs), path: abs, size: s.size, mtimeMs: s.mtimeMs, ...(mapping ? { mapping } : {}) };
+}
+
+async function writeProject(opts: SyncArgs, tracking: Awaited<ReturnType<typeof importTracking>>['data'] & object, events: EventLog, result: SyncResult, mapping: { tracking?: TrackingMapping; events?: EventMapping }) {
+  const target = resolve(opts.project!);
+  const name = basename(target).endsWith(FILE_EXTENSION) ? basename(target) : basename(target) + FILE_EXTENSION;
+  const footageRefs: FootageReference[] = [];
+  let footage;
+  if (opts.footage) {
+    const info = await stat(opts.footage).catch(() => null);
+    if (!info?.isFile()) throw new UserError(`cannot read the footage file ${opts.footage}: no such file. Check the path.`);
+    const probe = await probeFootageFile(resolve(opts.footage)).catch((e: Error) => {
+      throw new UserError(`${opts.footage}: cannot read it as footage (${e.message}).`);
+    });
+    footage = { ...(await fileInfo(opts.footage)), probe };
+    footageRefs.push({ sourceId: 3, path: footage.path, fileName: footage.fileName, fingerprint: await fingerprint(footage.path, footage.size) });
+  }
+  const title = `${Object.values(events.teams).filter(Boolean).join(' v ') || basename(opts.events)}`;
+  const tables = matchTables({
+    title,
+    user: process.env.USER ?? 'analyst',
+    tracking,
+    events,
+    sync: result,
+    files: { tracking: await fileInfo(opts.tracking, mapping.tracking), events: await fileInfo(opts.events, mapping.events), ...(footage ? { footage } : {}) },
+  });
+  if (footage) {
+    // The Sources screen's footage summary, from the probe.
+    const src = tables.sources.find((s) => s.kind === 'footage')!;
+    const p = footage.probe;
+    src.summary = {
+      duration: p.duration, rate: p.measuredFps || p.nominalFps, frames: p.frameCount, periods: [],
+      footage: { container: p.container, videoCodec: p.videoCodec, ...(p.audioCodec ? { audioCodec: p.audioCodec } : {}), width: p.width, height: p.height, nominalFps: p.nominalFps, measuredFps: p.measuredFps, variableRate: p.variableRate, frameCount: p.frameCount, startTime: p.startTime },
+    };
+  }
+  const bytes = await writeProjectFile(tables, { writtenBy: 'whistlemark sync (command line)', databaseVersion: 3, footage: footageRefs });
+  try {
+    return await saveAtomic({ directory: dirname(target), name, bytes, overwrite: opts.replace === true });
+  } catch (e) {
+    throw new UserError(`${(e as Error).message}${/already exists/.test((e as Error).message) ? ' (add --replace to replace it)' : ''}`);
   }
 }
 
