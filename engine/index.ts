@@ -32,3 +32,7 @@ export { seededRandom } from './geometry/prng.ts';
 export { pitchModel, LAW1_MARKINGS, type PitchModel, type PitchMarking, type PitchLandmark, type MarkingKind } from './geometry/pitch-model.ts';
 export { projectPolyline } from './geometry/projection.ts';
 export { homographyAt, interpolateHomography, type RegistrationKey, type FrameSize } from './geometry/keyframes.ts';
+export { jenksGroups } from './geometry/jenks.ts';
+export { offsideLine, backLine, teamLines, playerDistance, guessKeepers, attackSign, type PlayerSpot, type OffsideLine, type TeamLine, type HomeAttacks } from './geometry/lines.ts';
+export { convexHull, polygonArea, teamShape, type TeamShape } from './geometry/shape.ts';
+export { pitchSpace, type SpaceCell, type TeamSpace } from './geometry/space.ts';
