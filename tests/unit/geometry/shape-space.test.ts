@@ -61,7 +61,7 @@ describe('Voronoi space, checked against d3-delaunay (npm) directly and a half-p
       const total = space.area.home + space.area.away;
       expect(total).toBeCloseTo(105 * 68, 6);
       const pts = players.map((p): Vec2 => [p.x, p.y]);
-      const d3 = Delaunay.from(pts).voronoi([-52.5, -34, 52.5, 34]);
+      const d3 = Delaunay.from(pts.map((q) => [q[0], q[1]] as [number, number])).voronoi([-52.5, -34, 52.5, 34]);
       space.cells.forEach((c, i) => {
         expect(inside(c.polygon, pts[i])).toBe(true);
         expect(polygonArea(c.polygon)).toBeGreaterThan(0);
