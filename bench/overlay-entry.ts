@@ -66,12 +66,13 @@ function stats(ms: number[]) {
 }
 
 /** Overlay draw time per frame (update + render + 1-pixel readback so the GPU work is counted). */
-export async function pixiDraw(frames: number): Promise<{ median: number; p95: number; n: number; backend: string }> {
+export async function pixiDraw(frames: number, prefer: 'webgl' | 'canvas' = 'webgl'): Promise<{ median: number; p95: number; n: number; backend: string }> {
   const sc = scenes(frames);
   const canvas = document.createElement('canvas');
   document.body.appendChild(canvas);
-  const r = await createOverlayRenderer({ width: 1920, height: 1080, canvas });
-  const gl = (canvas.getContext('webgl2') ?? canvas.getContext('webgl')) as WebGL2RenderingContext | null;
+  const r = await createOverlayRenderer({ width: 1920, height: 1080, canvas, prefer });
+  const gl = r.backend === 'webgl' ? ((canvas.getContext('webgl2') ?? canvas.getContext('webgl')) as WebGL2RenderingContext | null) : null;
+  const c2d = r.backend === 'canvas' ? canvas.getContext('2d') : null;
   const px = new Uint8Array(4);
   for (let i = 0; i < 10; i++) r.draw(sc[i]); // warm-up (shader compile, font atlas)
   const ms: number[] = [];
@@ -79,6 +80,7 @@ export async function pixiDraw(frames: number): Promise<{ median: number; p95: n
     const t0 = performance.now();
     r.draw(s);
     gl?.readPixels(0, 0, 1, 1, gl.RGBA, gl.UNSIGNED_BYTE, px);
+    c2d?.getImageData(0, 0, 1, 1);
     ms.push(performance.now() - t0);
   }
   const out = { ...stats(ms), backend: r.backend };

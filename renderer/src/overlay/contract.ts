@@ -128,6 +128,8 @@ export interface OverlayRendererOptions {
   preserveDrawingBuffer?: boolean;
   /** Default 1: device pixels per output pixel. */
   resolution?: number;
+  /** Force pixi's canvas renderer (measured in bench/overlay.bench.ts); default WebGL first. */
+  prefer?: 'webgl' | 'canvas';
 }
 
 export interface OverlayRenderer {

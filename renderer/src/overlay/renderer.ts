@@ -26,7 +26,7 @@ interface LayerSlot {
 
 export const createOverlayRenderer: CreateOverlayRenderer = async (options) => {
   const renderer: Renderer = await autoDetectRenderer({
-    preference: ['webgl', 'canvas'] as unknown as 'webgl',
+    preference: (options.prefer === 'canvas' ? ['canvas'] : ['webgl', 'canvas']) as unknown as 'webgl',
     width: options.width,
     height: options.height,
     backgroundAlpha: 0,

@@ -11,10 +11,11 @@ import type { DisplayedFrame, PlayerControl } from '../player/contract.ts';
 import type { LandmarkPair, OverlayData, OverlayRenderer, OverlaySettings, RegistrationData } from '../overlay/contract.ts';
 import { isRegistrationData, loadOverlayData, loadRegistrationRow, overlaySources } from '../overlay/data.ts';
 import { createOverlayRenderer } from '../overlay/renderer.ts';
-import { buildOverlayScene } from '../overlay/scene.ts';
+import { buildOverlayScene, lastLiveMoment, notLiveAt } from '../overlay/scene.ts';
 import { registrationAt } from '../overlay/registration-at.ts';
 import { commit } from '../history/history.ts';
 import { LayerPanel, layerForKey } from './LayerPanel.tsx';
+import { LAYERS } from '../overlay/layers/index.ts';
 import { RegistrationPanel } from './registration/RegistrationPanel.tsx';
 import { emptyRegistration, nudgePairs, suggestedPairs, withKeyframe, withoutKeyframe, withPair } from './registration/edit.ts';
 import { markingsOf, solvePairs } from './registration/geometry.ts';
@@ -290,7 +291,10 @@ export function WatchScreen({ projectId }: { projectId: number }) {
           <div ref={footageHost} className="watch-overlay-host" />
           {registering && data && <PairMarkers pairs={pairs} solved={solved} w={data.footage.width} h={data.footage.height} selected={selected} />}
         </div>
-        <WatchTransport player={player} frame={frame} data={data} />
+        <WatchTransport player={player} frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
+        <p className="muted small watch-keys">
+          Keys: Space play/pause · ←/→ frame · {LAYERS.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
+        </p>
         {loadError && <p className="error-text" role="alert">{loadError}</p>}
         {fitMissing && <p className="muted small">No footage clock fit yet: make one on the Sync screen (Alt+2); until then positions cannot be placed on the footage.</p>}
         {message && <p className="watch-message" role="status">{message}</p>}
@@ -362,8 +366,9 @@ function PairMarkers({ pairs, solved, w, h, selected }: { pairs: LandmarkPair[];
   );
 }
 
-function WatchTransport({ player, frame, data }: { player: PlayerControl | null; frame: DisplayedFrame | undefined; data: OverlayData | undefined }) {
-  const live = frame && data ? buildOverlayScene(data, frame, { teams: { home: {} as never, away: {} as never }, layers: {} as never, trailSeconds: 0 }, { width: 1, height: 1, view: 'pitch' }) : undefined;
+function WatchTransport({ player, frame, data, showMarks, onMarks }: { player: PlayerControl | null; frame: DisplayedFrame | undefined; data: OverlayData | undefined; showMarks: boolean; onMarks: () => void }) {
+  const reason = frame && data ? notLiveAt(data, frame.t) : undefined;
+  const moment = frame && data ? lastLiveMoment(data, frame.t) : undefined;
   return (
     <div className="watch-transport">
       <button type="button" onClick={() => (player?.playing ? player.pause() : player?.play())} disabled={!player} title="Play / pause (Space)" aria-keyshortcuts="Space">
@@ -375,6 +380,9 @@ function WatchTransport({ player, frame, data }: { player: PlayerControl | null;
       </button>
       <button type="button" onClick={() => void player?.step(1)} disabled={!player} title="Next frame (→)" aria-keyshortcuts="ArrowRight">
         frame ▶
+      </button>
+      <button type="button" aria-pressed={showMarks} onClick={onMarks} title="Draw the registered pitch markings over the footage (P)" aria-keyshortcuts="P">
+        Pitch marks <kbd>P</kbd>
       </button>
       <form
         className="watch-goto"
@@ -391,11 +399,12 @@ function WatchTransport({ player, frame, data }: { player: PlayerControl | null;
       <span className="mono" data-testid="watch-frame">
         {frame ? `frame ${frame.index} · ${frame.t.toFixed(2)} s` : 'no frame yet'}
       </span>
-      {live?.moment && (
-        <span className="mono muted">
-          tracking P{live.moment.period} {formatClock(live.moment.t)}
+      {moment && (
+        <span className="mono muted" data-testid="watch-moment">
+          {reason ? `${reason}: last live moment ` : 'tracking '}P{moment.period} {formatClock(moment.t)}
         </span>
       )}
+      {!moment && reason && <span className="muted small">{reason}</span>}
     </div>
   );
 }
