@@ -132,9 +132,13 @@ async function decodePng(page: Page, png: Buffer): Promise<{ rgba: Uint8ClampedA
     const c = new OffscreenCanvas(bmp.width, bmp.height);
     const ctx = c.getContext('2d')!;
     ctx.drawImage(bmp, 0, 0);
-    return { data: Array.from(ctx.getImageData(0, 0, bmp.width, bmp.height).data), w: bmp.width, h: bmp.height };
+    const px = ctx.getImageData(0, 0, bmp.width, bmp.height).data;
+    // Back as base64 text: far cheaper to hand over than an array of numbers.
+    let bin = '';
+    for (let i = 0; i < px.length; i += 0x8000) bin += String.fromCharCode(...px.subarray(i, i + 0x8000));
+    return { b64: btoa(bin), w: bmp.width, h: bmp.height };
   }, png.toString('base64'));
-  return { rgba: Uint8ClampedArray.from(r.data), w: r.w, h: r.h };
+  return { rgba: new Uint8ClampedArray(Buffer.from(r.b64, 'base64')), w: r.w, h: r.h };
 }
 
 /** Pixels that differ between two shots of the same frame (the overlay), as a mask. */

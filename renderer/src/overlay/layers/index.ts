@@ -1,10 +1,27 @@
 /** Every overlay layer, in drawing order (under to over). */
 import type { OverlayLayer } from './layer.ts';
+import { backLineLayer } from './back-line.ts';
 import { ballLayer } from './ball.ts';
 import { distanceLayer } from './distance.ts';
 import { dotsLayer } from './dots.ts';
+import { extentLayer } from './extent.ts';
+import { hullLayer } from './hull.ts';
+import { offsideLayer } from './offside.ts';
+import { spaceLayer } from './space.ts';
+import { teamLinesLayer } from './team-lines.ts';
 import { trailsLayer } from './trails.ts';
 
-export const LAYERS: OverlayLayer[] = [trailsLayer, dotsLayer, ballLayer, distanceLayer].sort((a, b) => a.order - b.order);
+export const LAYERS: OverlayLayer[] = [
+  spaceLayer,
+  hullLayer,
+  trailsLayer,
+  teamLinesLayer,
+  dotsLayer,
+  ballLayer,
+  backLineLayer,
+  offsideLayer,
+  extentLayer,
+  distanceLayer,
+].sort((a, b) => a.order - b.order);
 
 export type { OverlayLayer, LayerContext } from './layer.ts';
