@@ -81,8 +81,10 @@ export const createOverlayRenderer: CreateOverlayRenderer = async (options) => {
       const s = Math.max(11, 12 * view.unit);
       const text = footage ? `${scene.notLiveReason ?? 'Not live'} · no overlay` : `${scene.notLiveReason ?? 'Not live'} · showing last live moment`;
       const w = text.length * s * 0.62 + 16 * view.unit;
-      indicator.roundRect(10 * view.unit, 10 * view.unit, w, s * 2, 4 * view.unit).fill({ color: 0x1b1b1b, alpha: 0.6 });
-      indicatorLabel.place(text, 10 * view.unit + w / 2, 10 * view.unit + s, s, 0xd0d0d0);
+      // Bottom-left: broadcast graphics (score, clock, replay marks) sit at the top.
+      const top = footage ? scene.height - 10 * view.unit - s * 2 : 10 * view.unit;
+      indicator.roundRect(10 * view.unit, top, w, s * 2, 4 * view.unit).fill({ color: 0x1b1b1b, alpha: 0.6 });
+      indicatorLabel.place(text, 10 * view.unit + w / 2, top + s, s, 0xd0d0d0);
     }
     indicatorLabel.end();
     renderer.render(stage);

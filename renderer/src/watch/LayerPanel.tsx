@@ -1,11 +1,11 @@
 /** Layer toggles per team, team colours, trail length and the distance pair. */
 import type { LayerId, OverlayData, OverlaySettings, TeamKey } from '../overlay/contract.ts';
-import { LAYERS } from '../overlay/layers/index.ts';
+import { LAYER_MENU } from '../overlay/layers/index.ts';
 import { fromHex, toHex } from '../overlay/style.ts';
 
 /** The layer a plain key press toggles (player keys Space, arrows, J, K, L, G are never used). */
 export function layerForKey(key: string): LayerId | undefined {
-  return LAYERS.find((l) => l.key.toLowerCase() === key.toLowerCase())?.id;
+  return LAYER_MENU.find((l) => l.key.toLowerCase() === key.toLowerCase())?.id;
 }
 
 const TEAMS: TeamKey[] = ['home', 'away'];
@@ -30,7 +30,7 @@ export function LayerPanel({ settings, onChange, data }: { settings: OverlaySett
           </tr>
         </thead>
         <tbody>
-          {LAYERS.map((l) => (
+          {LAYER_MENU.map((l) => (
             <tr key={l.id}>
               <th scope="row" title={`${l.title}: ${l.key} both teams, Shift+${l.key} away only`}>
                 {l.title}

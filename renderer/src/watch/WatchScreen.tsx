@@ -15,7 +15,7 @@ import { buildOverlayScene, lastLiveMoment, notLiveAt } from '../overlay/scene.t
 import { registrationAt } from '../overlay/registration-at.ts';
 import { commit } from '../history/history.ts';
 import { LayerPanel, layerForKey } from './LayerPanel.tsx';
-import { LAYERS } from '../overlay/layers/index.ts';
+import { LAYER_MENU } from '../overlay/layers/index.ts';
 import { RegistrationPanel } from './registration/RegistrationPanel.tsx';
 import { emptyRegistration, nudgePairs, suggestedPairs, withKeyframe, withoutKeyframe, withPair } from './registration/edit.ts';
 import { markingsOf, solvePairs } from './registration/geometry.ts';
@@ -293,7 +293,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
         </div>
         <WatchTransport player={player} frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
         <p className="muted small watch-keys">
-          Keys: Space play/pause · ←/→ frame · {LAYERS.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
+          Keys: Space play/pause · ←/→ frame · {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
         </p>
         {loadError && <p className="error-text" role="alert">{loadError}</p>}
         {fitMissing && <p className="muted small">No footage clock fit yet: make one on the Sync screen (Alt+2); until then positions cannot be placed on the footage.</p>}

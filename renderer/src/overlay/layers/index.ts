@@ -24,4 +24,7 @@ export const LAYERS: OverlayLayer[] = [
   distanceLayer,
 ].sort((a, b) => a.order - b.order);
 
+/** The same layers in the order the analyst reads them (toggle list, key list). */
+export const LAYER_MENU: OverlayLayer[] = ['dots', 'ball', 'trails', 'distance', 'offside', 'backLine', 'teamLines', 'hull', 'extent', 'space'].map((id) => LAYERS.find((l) => l.id === id)!);
+
 export type { OverlayLayer, LayerContext } from './layer.ts';
