@@ -11,20 +11,13 @@ import { spaceLayer } from './space.ts';
 import { teamLinesLayer } from './team-lines.ts';
 import { trailsLayer } from './trails.ts';
 
-export const LAYERS: OverlayLayer[] = [
-  spaceLayer,
-  hullLayer,
-  trailsLayer,
-  teamLinesLayer,
-  dotsLayer,
-  ballLayer,
-  backLineLayer,
-  offsideLayer,
-  extentLayer,
-  distanceLayer,
-].sort((a, b) => a.order - b.order);
+/** Layers whose geometry the engine computes (overlay/derived.ts): listed once it is wired in. */
+export const GEOMETRY_LAYERS: OverlayLayer[] = [spaceLayer, hullLayer, teamLinesLayer, backLineLayer, offsideLayer, extentLayer];
+const GEOMETRY_WIRED = false;
+
+export const LAYERS: OverlayLayer[] = [trailsLayer, dotsLayer, ballLayer, distanceLayer, ...(GEOMETRY_WIRED ? GEOMETRY_LAYERS : [])].sort((a, b) => a.order - b.order);
 
 /** The same layers in the order the analyst reads them (toggle list, key list). */
-export const LAYER_MENU: OverlayLayer[] = ['dots', 'ball', 'trails', 'distance', 'offside', 'backLine', 'teamLines', 'hull', 'extent', 'space'].map((id) => LAYERS.find((l) => l.id === id)!);
+export const LAYER_MENU: OverlayLayer[] = ['dots', 'ball', 'trails', 'distance', 'offside', 'backLine', 'teamLines', 'hull', 'extent', 'space'].flatMap((id) => LAYERS.filter((l) => l.id === id));
 
 export type { OverlayLayer, LayerContext } from './layer.ts';
