@@ -167,10 +167,12 @@ function centroidNear(mask: Uint8Array, w: number, h: number, cx: number, cy: nu
 }
 
 async function goToFrame(page: Page, index: number) {
-  await page.getByLabel('Go to frame').fill(String(index));
-  await page.getByLabel('Go to frame').press('Enter');
+  // The footage player's go-to field, on the footage frame clock.
+  const form = page.getByRole('form', { name: 'Go to a moment' });
+  await form.getByLabel('Clock').selectOption('frame');
+  await form.getByLabel('Moment (Footage frame)').fill(String(index));
+  await form.getByLabel('Moment (Footage frame)').press('Enter');
   await page.getByTestId('watch-frame').filter({ hasText: new RegExp(`^frame ${index} `) }).waitFor({ timeout: 20_000 });
-  // Blur the field so layer keys reach the screen, then let the overlay draw.
   await page.locator('.watch-stage').hover();
   await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
   await page.waitForTimeout(150);
@@ -317,10 +319,10 @@ describe.runIf(usingDemo)('Watch screen on the demo match', () => {
   it('plays through with the overlay following the footage', async () => {
     const { page } = app;
     await goToFrame(page, KEYFRAMES[0] - 25);
-    await page.getByRole('button', { name: /^Play/ }).click();
+    await page.getByRole('button', { name: 'Play', exact: true }).click();
     await page.waitForTimeout(1500);
     await shot(page, 'watch-08-playing');
-    await page.getByRole('button', { name: /^Pause/ }).click();
+    await page.getByRole('button', { name: 'Pause', exact: true }).click();
     const text = await page.getByTestId('watch-frame').innerText();
     const index = Number(/frame (\d+)/.exec(text)![1]);
     expect(index).toBeGreaterThan(KEYFRAMES[0] - 25 + 10);

@@ -7,7 +7,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useServices } from '../app/context.ts';
 import { isTypingTarget } from '../app/keys.ts';
 import { useLive } from '../app/useLive.ts';
-import type { DisplayedFrame, PlayerControl } from '../player/contract.ts';
+import type { DisplayedFrame } from '../player/contract.ts';
 import type { LandmarkPair, OverlayData, OverlayRenderer, OverlaySettings, RegistrationData } from '../overlay/contract.ts';
 import { isRegistrationData, loadOverlayData, loadRegistrationRow, overlaySources } from '../overlay/data.ts';
 import { createOverlayRenderer } from '../overlay/renderer.ts';
@@ -20,14 +20,12 @@ import { RegistrationPanel } from './registration/RegistrationPanel.tsx';
 import { emptyRegistration, nudgePairs, suggestedPairs, withKeyframe, withoutKeyframe, withPair } from './registration/edit.ts';
 import { markingsOf, solvePairs } from './registration/geometry.ts';
 import { mergeSettings, saveSettings, settingsKey } from './overlay-settings.ts';
-import { useFootagePlayer } from './use-footage-player.ts';
+import { FootagePlayer, useFootageSource, type FootagePlayerControl } from '../player/index.ts';
 import './watch.css';
 
 export function WatchScreen({ projectId }: { projectId: number }) {
-  const { db, host, info } = useServices();
+  const { db, info } = useServices();
   const sources = useLive(() => overlaySources(db, projectId), [projectId]);
-  const footageSource = useLive(() => (sources ? db.sources.get(sources.footageSourceId) : Promise.resolve(undefined)), [sources?.footageSourceId]);
-  const probe = useLive(() => (sources ? db.footage.get(sources.footageSourceId).then((r) => r?.probe) : Promise.resolve(undefined)), [sources?.footageSourceId]);
   const storedSettings = useLive(() => db.settings.get(settingsKey(projectId)).then((r) => r?.value ?? null), [projectId]);
   const settings = useMemo(() => mergeSettings(storedSettings), [storedSettings]);
   // Everything a scene is built from; reloaded when the fit, registration or non-live rows change.
@@ -49,17 +47,9 @@ export function WatchScreen({ projectId }: { projectId: number }) {
     };
   }, [db, projectId, sources, version]);
 
-  const [videoUrl, setVideoUrl] = useState<string>();
-  useEffect(() => {
-    if (!footageSource) return;
-    host
-      .openPaths([footageSource.path])
-      .then((f) => setVideoUrl(f[0]?.url))
-      .catch((e) => setLoadError(`The footage ${footageSource.fileName} could not be opened: ${(e as Error).message}`));
-  }, [host, footageSource]);
-
-  const videoRef = useRef<HTMLVideoElement | null>(null);
-  const player = useFootagePlayer(videoRef, videoUrl, probe);
+  const footage = useFootageSource(projectId, sources?.footageSourceId);
+  const probe = footage.probe;
+  const [player, setPlayer] = useState<FootagePlayerControl | null>(null);
   const [frame, setFrame] = useState<DisplayedFrame | undefined>();
 
   // Registration working state (pairs on the current frame before they are saved).
@@ -83,14 +73,10 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   useEffect(() => {
     const el = stageRef.current;
     if (!el) return;
-    const ro = new ResizeObserver(() => {
-      const w = Math.max(320, Math.round(el.clientWidth));
-      const ar = probe ? probe.height / probe.width : 9 / 16;
-      setSize({ width: w, height: Math.round(w * ar) });
-    });
+    const ro = new ResizeObserver(() => setSize({ width: Math.max(160, Math.round(el.clientWidth)), height: Math.max(90, Math.round(el.clientHeight)) }));
     ro.observe(el);
     return () => ro.disconnect();
-  }, [probe]);
+  }, [footage.src, probe]);
 
   useEffect(() => {
     // Each mount makes its own canvases: a renderer destroyed late (StrictMode's second
@@ -110,11 +96,9 @@ export function WatchScreen({ projectId }: { projectId: number }) {
       fc.className = 'watch-overlay';
       fc.setAttribute('aria-label', 'Overlay on the footage');
       fc.dataset.testid = 'footage-overlay';
-      footageHost.current?.replaceChildren(fc);
       const pc = p.canvas as HTMLCanvasElement;
       pc.setAttribute('aria-label', '2-D pitch view');
       pc.dataset.testid = 'pitch-view';
-      pitchHost.current?.replaceChildren(pc);
       renderers.current = made;
       setRenderersReady((n) => n + 1);
     })().catch((e) => setLoadError(`The overlay could not start: ${(e as Error).message}`));
@@ -126,6 +110,12 @@ export function WatchScreen({ projectId }: { projectId: number }) {
     };
   }, []);
   const [renderersReady, setRenderersReady] = useState(0);
+  // The canvases go into their hosts once both exist (the footage host appears with the player).
+  useEffect(() => {
+    const { footage: f, pitch: p } = renderers.current;
+    if (f && footageHost.current && (f.canvas as HTMLCanvasElement).parentNode !== footageHost.current) footageHost.current.replaceChildren(f.canvas as HTMLCanvasElement);
+    if (p && pitchHost.current && (p.canvas as HTMLCanvasElement).parentNode !== pitchHost.current) pitchHost.current.replaceChildren(p.canvas as HTMLCanvasElement);
+  });
   useEffect(() => {
     const f = renderers.current.footage;
     if (!f) return;
@@ -286,14 +276,20 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   return (
     <section className="watch" aria-label="Watch">
       <div className="watch-main">
-        <div className="watch-stage" ref={stageRef} style={{ height: size.height }} data-registering={registering || undefined} onClick={onStageClick}>
-          <video ref={videoRef} className="watch-video" style={{ width: size.width, height: size.height }} muted playsInline preload="auto" aria-label="Footage" />
-          <div ref={footageHost} className="watch-overlay-host" />
-          {registering && data && <PairMarkers pairs={pairs} solved={solved} w={data.footage.width} h={data.footage.height} selected={selected} />}
-        </div>
-        <WatchTransport player={player} frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
+        {footage.error && <p className="error-text" role="alert">{footage.error}</p>}
+        {footage.src && probe ? (
+          <FootagePlayer src={footage.src} probe={probe} {...(footage.mediaOffset !== undefined ? { mediaOffset: footage.mediaOffset } : {})} clocks={footage.clocks} onControl={setPlayer} label="Footage with overlay" className="watch-player">
+            <div className="watch-stage" ref={stageRef} data-registering={registering || undefined} onClick={onStageClick}>
+              <div ref={footageHost} className="watch-overlay-host" />
+              {registering && data && <PairMarkers pairs={pairs} solved={solved} w={data.footage.width} h={data.footage.height} selected={selected} />}
+            </div>
+          </FootagePlayer>
+        ) : (
+          <p className="muted">Opening the footage…</p>
+        )}
+        <WatchTransport frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
         <p className="muted small watch-keys">
-          Keys: Space play/pause · ←/→ frame · {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
+ Overlay keys: {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
         </p>
         {loadError && <p className="error-text" role="alert">{loadError}</p>}
         {fitMissing && <p className="muted small">No footage clock fit yet: make one on the Sync screen (Alt+2); until then positions cannot be placed on the footage.</p>}
@@ -366,36 +362,14 @@ function PairMarkers({ pairs, solved, w, h, selected }: { pairs: LandmarkPair[];
   );
 }
 
-function WatchTransport({ player, frame, data, showMarks, onMarks }: { player: PlayerControl | null; frame: DisplayedFrame | undefined; data: OverlayData | undefined; showMarks: boolean; onMarks: () => void }) {
+function WatchTransport({ frame, data, showMarks, onMarks }: { frame: DisplayedFrame | undefined; data: OverlayData | undefined; showMarks: boolean; onMarks: () => void }) {
   const reason = frame && data ? notLiveAt(data, frame.t) : undefined;
   const moment = frame && data ? lastLiveMoment(data, frame.t) : undefined;
   return (
     <div className="watch-transport">
-      <button type="button" onClick={() => (player?.playing ? player.pause() : player?.play())} disabled={!player} title="Play / pause (Space)" aria-keyshortcuts="Space">
-        {player?.playing ? 'Pause' : 'Play'}
-        <kbd>Space</kbd>
-      </button>
-      <button type="button" onClick={() => void player?.step(-1)} disabled={!player} title="Previous frame (←)" aria-keyshortcuts="ArrowLeft">
-        ◀ frame
-      </button>
-      <button type="button" onClick={() => void player?.step(1)} disabled={!player} title="Next frame (→)" aria-keyshortcuts="ArrowRight">
-        frame ▶
-      </button>
       <button type="button" aria-pressed={showMarks} onClick={onMarks} title="Draw the registered pitch markings over the footage (P)" aria-keyshortcuts="P">
         Pitch marks <kbd>P</kbd>
       </button>
-      <form
-        className="watch-goto"
-        onSubmit={(e) => {
-          e.preventDefault();
-          const v = Number(new FormData(e.currentTarget).get('frame'));
-          if (Number.isFinite(v)) void player?.seekToFrame(v);
-        }}
-      >
-        <label className="small">
-          Go to frame <input name="frame" type="number" min={0} step={1} className="mono" aria-label="Go to frame" />
-        </label>
-      </form>
       <span className="mono" data-testid="watch-frame">
         {frame ? `frame ${frame.index} · ${frame.t.toFixed(2)} s` : 'no frame yet'}
       </span>

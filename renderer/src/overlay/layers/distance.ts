@@ -5,7 +5,7 @@ import type { OverlayLayer } from './layer.ts';
 export const distanceLayer: OverlayLayer = {
   id: 'distance',
   title: 'Distance',
-  key: 'M',
+  key: 'Q',
   order: 80,
   draw({ scene, view, g, labels, teams }) {
     const pair = scene.distancePair;
