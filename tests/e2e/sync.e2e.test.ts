@@ -61,6 +61,9 @@ async function markAt(page: Page, frame: number, key: string, count: number) {
   await goToFrame(page, frame);
   await page.keyboard.press(key);
   await expect.poll(async () => (await stored(page)).footageAnchors.length, { timeout: 10_000 }).toBe(count);
+  // Marked on the frame on screen (the demo's frames are at n / 25 s: footage.ffprobe.json).
+  const last = (await stored(page)).footageAnchors.sort((a, b) => a.t - b.t).find((a) => Math.abs(a.t - frame / FPS) < 1e-6);
+  expect(last, `anchor at frame ${frame}`).toBeDefined();
 }
 
 function errors(fit: ClockFit) {
@@ -128,6 +131,18 @@ describe('Sync on the demo match', () => {
     const undone = await stored(p2);
     expect(undone.fits[0].segments.flatMap((x) => x.points).length).toBe(2);
     expect(app.outsideRequests).toEqual([]);
+    expect(app.pageErrors).toEqual([]);
+  });
+
+  it('Find candidates (F) shows progress and Escape cancels it with nothing stored', async () => {
+    const page = app.page;
+    const before = await stored(page);
+    await page.locator('body').click({ position: { x: 5, y: 5 } });
+    await page.keyboard.press('f');
+    await page.getByRole('status', { name: 'Finding candidates' }).waitFor({ timeout: 10_000 });
+    await page.keyboard.press('Escape');
+    await page.getByTestId('sync-message').getByText('Finding candidates was cancelled; nothing was stored.').waitFor({ timeout: 20_000 });
+    expect((await stored(page)).footageAnchors).toEqual(before.footageAnchors);
     expect(app.pageErrors).toEqual([]);
   });
 });

@@ -17,6 +17,7 @@ import { useLive } from '../app/useLive.ts';
 import type { AnchorRow, NonLiveRow } from '../db/rows.ts';
 import { commit, type ChangeInput } from '../history/history.ts';
 import { FootagePlayer, frameShownAt, newestFit, useFootageSource, type FootagePlayerControl } from '../player/index.ts';
+import { scanFootage, type ScanProgress } from '../candidates/index.ts';
 import { Lanes, type LaneLink, type LaneMark } from './Lanes.tsx';
 import { ResidualChart, type ResidualPoint } from './ResidualChart.tsx';
 import { autoPair, changesWithFit, computeSync, pairedTracking, rowKey, type SyncInputs } from './sync-model.ts';
@@ -54,6 +55,22 @@ export function SyncScreen({ projectId }: { projectId: number }) {
   const [nonLiveStart, setNonLiveStart] = useState<number | undefined>();
   const [message, setMessage] = useState('');
   const busy = useRef(false);
+  const [scan, setScan] = useState<{ progress: ScanProgress; abort: AbortController } | null>(null);
+
+  /** Find candidates: whistles and cuts from the footage (worker, progress, cancel); stored as one undoable step by scanFootage. */
+  const find = useCallback(async () => {
+    if (footageId === undefined || scan) return;
+    const abort = new AbortController();
+    setScan({ progress: { phase: 'loading', fraction: 0, message: 'Starting…' }, abort });
+    try {
+      const r = await scanFootage(db, projectId, footageId, { signal: abort.signal, user: info.userName, onProgress: (progress) => setScan({ progress, abort }) });
+      setMessage(`Found ${r.whistles.length} whistles and ${r.cuts.length} cuts; proposals below.`);
+    } catch (e) {
+      setMessage(abort.signal.aborted ? 'Finding candidates was cancelled; nothing was stored.' : `Finding candidates failed: ${(e as Error).message}`);
+    } finally {
+      setScan(null);
+    }
+  }, [db, projectId, footageId, info.userName, scan]);
 
   useEffect(() => {
     if (!control) return;
@@ -94,8 +111,10 @@ export function SyncScreen({ projectId }: { projectId: number }) {
 
   const mark = useCallback(
     async (kind: AnchorKind) => {
-      if (!inputs || !state || frameT === undefined || !probe) return;
-      const frame = frameShownAt(probe.pts, frameT);
+      // The frame on screen now, from the player (React state may lag a key pressed right after a seek).
+      const shownT = control?.current?.t ?? frameT;
+      if (!inputs || !state || shownT === undefined || !probe) return;
+      const frame = control?.current?.index ?? frameShownAt(probe.pts, shownT);
       const t = probe.pts[frame];
       const isRestart = kind !== 'whistle' && kind !== 'period_end';
       const { period, tracking } = isRestart ? autoPair(kind, t, state, inputs) : { period: autoPair('whistle', t, state, inputs).period, tracking: undefined };
@@ -107,7 +126,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
       const paired = tracking ? ` ↔ ${kindWord(tracking.anchor.kind)} at tracking ${clockText(tracking.anchor.t)} (period ${tracking.anchor.period})` : '';
       await save(`mark ${kindWord(kind)} at footage ${clockText(t)} (frame ${frame})${paired}`, [{ table: 'anchors', after: row }], [...inputs.footageRows, { ...row, id: -1 }]);
     },
-    [inputs, state, frameT, probe, projectId, save],
+    [inputs, state, frameT, probe, projectId, save, control],
   );
 
   const accept = useCallback(
@@ -191,14 +210,15 @@ export function SyncScreen({ projectId }: { projectId: number }) {
       else if (k === 'c' || k === 'C') act = confirmNonLive;
       else if (k === '[') act = () => { setNonLiveStart(frameT); setMessage(`Non-live interval starts at ${clockText(frameT ?? 0)}; press ] at its end.`); };
       else if (k === ']') act = endNonLive;
-      else if (k === 'f' || k === 'F') act = () => setMessage(FIND_UNAVAILABLE);
+      else if (k === 'f' || k === 'F') act = find;
+      else if (k === 'Escape' && scan) act = () => scan.abort.abort();
       if (!act) return;
       e.preventDefault();
       void act();
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [mark, accept, goToProposal, cur, toggleExclude, remove, confirmNonLive, endNonLive, frameT]);
+  }, [mark, accept, goToProposal, cur, toggleExclude, remove, confirmNonLive, endNonLive, frameT, find, scan]);
 
   if (sources && !footageSource) return <section className="panel" aria-label="Sync"><h2>Sync</h2><p className="muted">This match has no footage yet. Add it on the Sources screen (Alt+1).</p></section>;
   if (sources && !trackingSource) return <section className="panel" aria-label="Sync"><h2>Sync</h2><p className="muted">This match has no tracking yet: the footage is tied to the tracking clock. Add tracking on the Sources screen (Alt+1).</p></section>;
@@ -236,8 +256,15 @@ export function SyncScreen({ projectId }: { projectId: number }) {
               <button type="button" onClick={() => void confirmNonLive()} title="Confirm the proposed non-live interval under the playhead (C)" aria-keyshortcuts="C"><kbd>C</kbd> confirm non-live</button>
               <button type="button" onClick={() => { setNonLiveStart(frameT); }} title="Start a non-live interval here ([)" aria-keyshortcuts="["><kbd>[</kbd> non-live from</button>
               <button type="button" onClick={() => void endNonLive()} title="End the non-live interval here (])" aria-keyshortcuts="]"><kbd>]</kbd> …to</button>
-              <button type="button" disabled title={`${FIND_UNAVAILABLE} (F)`} aria-keyshortcuts="F"><kbd>F</kbd> Find candidates</button>
+              <button type="button" onClick={() => void find()} disabled={!!scan || footageId === undefined} title="Find whistle and cut candidates in the footage (F)" aria-keyshortcuts="F"><kbd>F</kbd> Find candidates</button>
             </div>
+            {scan && (
+              <div className="sy-scan" role="status" aria-label="Finding candidates">
+                <progress max={1} value={scan.progress.fraction} />
+                <span className="small">{scan.progress.message}</span>
+                <button type="button" className="quiet" onClick={() => scan.abort.abort()} title="Cancel (Escape)" aria-keyshortcuts="Escape">Cancel</button>
+              </div>
+            )}
             {selectedRow && <p className="small">Selected: {describe(selectedRow, inputs!)}</p>}
             <p className="small muted" role="status" aria-live="polite" data-testid="sync-message">{message}</p>
           </section>
@@ -247,7 +274,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
               Proposed pairings <span className="muted small">({proposals.length})</span>
             </h3>
             {proposals.length === 0 ? (
-              <p className="small muted">{fit?.segments.length ? 'None: every whistle near a restart is paired, or there are no whistles yet (mark one with W).' : 'Mark the kick-off of each period first (1).'}</p>
+              <p className="small muted">{fit?.segments.length ? 'None: every whistle near a restart is paired, or there are no whistles yet (Find candidates, F, or mark one with W).' : 'Mark the kick-off of each period first (1).'}</p>
             ) : (
               <>
                 <ol className="sy-props" data-testid="proposals">
@@ -289,7 +316,6 @@ export function SyncScreen({ projectId }: { projectId: number }) {
   );
 }
 
-const FIND_UNAVAILABLE = 'Finding whistle and cut candidates is not available in this build yet; mark whistles with W meanwhile';
 
 function describe(r: AnchorRow, inp: SyncInputs): string {
   const t = pairedTracking(r, inp.trackingRows);
