@@ -1,6 +1,7 @@
 // Browser side of tests/host/export-embedded.test.ts and bench/export.bench.ts: the renderer's
 // own export and overlay code and the engine importer, bundled by esbuild.
 import { drawCaption, exportClipEmbedded, layerSelection } from '../../renderer/src/export-clips/embedded.ts';
+import { joinClips } from '../../renderer/src/export-clips/concat.ts';
 import { createOverlayRenderer } from '../../renderer/src/overlay/renderer.ts';
 import { buildOverlayScene } from '../../renderer/src/overlay/scene.ts';
 import { defaultSettings } from '../../renderer/src/overlay/style.ts';
@@ -57,4 +58,4 @@ async function streamOverlayFrames(a: { o: Pick<OverlayData, 'fit' | 'registrati
   return drawMs;
 }
 
-(window as unknown as Record<string, unknown>).wm = { exportClipEmbedded, createOverlayRenderer, defaultSettings, loadTracking, overlayData, streamOverlayFrames };
+(window as unknown as Record<string, unknown>).wm = { joinClips, exportClipEmbedded, createOverlayRenderer, defaultSettings, loadTracking, overlayData, streamOverlayFrames };

@@ -171,6 +171,35 @@ describe('embedded export (WebCodecs + mediabunny in Debian Chromium)', () => {
     expect(source / clear.length).toBeLessThan(0.3);
   });
 
+  it('joins exported clips into one reel file without re-encoding (frame count, order, audio)', async () => {
+    const probe = await probeFootageFile(REF);
+    const spans = [
+      [10, 30],
+      [60, 85],
+    ];
+    const b64 = await ep.page.evaluate(
+      async ({ spans, pts, b64 }) => {
+        const wm = (window as any).wm;
+        const blob = await (await fetch('/ref.mp4')).blob();
+        const parts = [];
+        for (const [a, b] of spans) parts.push(await wm.exportClipEmbedded({ source: blob, plan: { title: 'p', layers: [], footage: { inFrame: a, outFrame: b, inT: pts[a], outT: pts[b] } }, pts, width: 320, height: 180, titleS: 0, caption: false }));
+        return (0, eval)(b64)(await wm.joinClips(parts));
+      },
+      { spans, pts: probe.pts, b64: PAGE_B64 },
+    );
+    const out = join(scratch, 'joined.mp4');
+    writeFileSync(out, Buffer.from(b64, 'base64'));
+    const info = ffprobe(out);
+    const v = info.streams.find((s) => s.codec_type === 'video')!;
+    expect(Number(v.nb_read_frames)).toBe(20 + 25);
+    expect(Math.abs(Number(info.format.duration) - 45 / 25)).toBeLessThanOrEqual(1 / 25 + 1e-6);
+    expect(info.streams.some((s) => s.codec_type === 'audio')).toBe(true);
+    // Frame 20 of the reel is the second clip's in-frame (source frame 60).
+    const f = frameOf(out, 20, 'gray');
+    const diffs = [58, 59, 60, 61, 62].map((n) => counterDiff(f, frameOf(REF, n, 'gray'), 320));
+    expect(diffs.indexOf(Math.min(...diffs))).toBe(2);
+  });
+
   it('a cancelled export rejects and hands back nothing', async () => {
     const probe = await probeFootageFile(join(DEMO, 'footage.mp4'));
     const plan = { title: 'long', layers: [], footage: { inFrame: 800, outFrame: 3300, inT: probe.pts[800], outT: probe.pts[3300] } };

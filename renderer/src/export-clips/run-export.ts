@@ -19,6 +19,7 @@ import { mergeSettings, settingsKey } from '../watch/overlay-settings.ts';
 import { ExportCancelled, exportClipEmbedded } from './embedded.ts';
 import { planClip, PlanError, type ClipPlan, type PlanInputs } from './plan.ts';
 import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
+import { joinClips } from './concat.ts';
 
 export interface ExportContext {
   inputs: PlanInputs;
@@ -82,13 +83,14 @@ export function planClips(ctx: ExportContext, clips: (ClipRow & { id: number })[
 }
 
 /** File names of a job's outputs: one MP4 + VTT per clip, then the reel's CSV and JSON. */
-export function outputNames(reelTitle: string, plans: ClipPlan[]): { clip: { mp4: string; vtt: string }[]; csv: string; json: string } {
+export function outputNames(reelTitle: string, plans: ClipPlan[]): { clip: { mp4: string; vtt: string }[]; reel: { mp4: string; vtt: string }; csv: string; json: string } {
   const stem = fileStem(reelTitle);
   return {
     clip: plans.map((p) => {
       const base = `${stem}-${String(p.index + 1).padStart(2, '0')}-${fileStem(p.title)}`;
       return { mp4: `${base}.mp4`, vtt: `${base}.vtt` };
     }),
+    reel: { mp4: `${stem}.mp4`, vtt: `${stem}.vtt` },
     csv: `${stem}.csv`,
     json: `${stem}.json`,
   };
@@ -145,6 +147,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
   const set = (patch: Partial<ExportJobRow>) => db.exportJobs.update(id, { ...patch, updatedAt: Date.now() });
   await set({ state: 'running' });
   const outputs = [...job.outputs];
+  let resumed = false;
   try {
     const reel = await db.reels.get(job.reelId);
     if (!reel) throw new Error(`reel ${job.reelId} no longer exists; nothing was exported`);
@@ -159,12 +162,14 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
     const total = plans.reduce((s, p) => s + p.durationS, 0);
     let doneS = 0;
     const t0 = performance.now();
+    const encoded: Uint8Array[] = [];
     const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true }) : undefined;
     try {
       for (let i = 0; i < plans.length; i++) {
         const p = plans[i];
         const n = names.clip[i];
         if (outputs.includes(n.mp4)) {
+          resumed = true;
           doneS += p.durationS;
           continue; // finished before a restart
         }
@@ -185,11 +190,28 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
         await host.saveFile({ suggestedName: n.mp4, directory: job.directory, bytes, overwrite: !!job.overwrite });
         await host.saveFile({ suggestedName: n.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt([{ ...p }], { titleCardS: 0 })), overwrite: !!job.overwrite });
         outputs.push(n.mp4, n.vtt);
+        encoded.push(bytes);
         doneS += p.durationS;
         await set({ outputs: [...outputs], progress: total > 0 ? doneS / total : 1 });
       }
     } finally {
       renderer?.destroy();
+    }
+    // The whole reel as one file (clips joined without a second encode), when every clip
+    // was encoded in this run; after a resume the earlier clips' bytes are gone.
+    let reelNote = '';
+    if (plans.length > 1 && !outputs.includes(names.reel.mp4)) {
+      if (resumed) reelNote = '; the whole-reel file was left out after the resume (export again for it)';
+      else {
+        try {
+          const reelBytes = await joinClips(encoded);
+          await host.saveFile({ suggestedName: names.reel.mp4, directory: job.directory, bytes: reelBytes, overwrite: !!job.overwrite });
+          await host.saveFile({ suggestedName: names.reel.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt(plans, { titleCardS: 0 })), overwrite: !!job.overwrite });
+          outputs.push(names.reel.mp4, names.reel.vtt);
+        } catch (e) {
+          reelNote = `; no whole-reel file: ${(e as Error).message}`;
+        }
+      }
     }
     const side = reelSidecars(reel.title, plans, { titleCardS: 0, footageFile: ctx.footageName });
     for (const [name, text] of [
@@ -200,7 +222,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
       await host.saveFile({ suggestedName: name, directory: job.directory, bytes: new TextEncoder().encode(text), overwrite: !!job.overwrite });
       outputs.push(name);
     }
-    await set({ state: 'done', progress: 1, outputs, message: `${plans.length === 1 ? '1 clip' : `${plans.length} clips`} written to ${job.directory}` });
+    await set({ state: 'done', progress: 1, outputs: [...outputs], message: `${plans.length === 1 ? '1 clip' : `${plans.length} clips`} written to ${job.directory}${reelNote}` });
   } catch (e) {
     const cancelled = e instanceof ExportCancelled || signal?.aborted;
     await set({ state: cancelled ? 'cancelled' : 'failed', outputs, message: cancelled ? 'cancelled; the clip being encoded was not written' : (e as Error).message });

@@ -546,7 +546,7 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
     const { plans, problems } = planClips(exportCtx, clips);
     if (problems.length) return onError(problems.join('\n'));
     const names = outputNames(reelTitle, plans);
-    const all = [...names.clip.flatMap((n) => [n.mp4, n.vtt]), names.csv, names.json];
+    const all = [...names.clip.flatMap((n) => [n.mp4, n.vtt]), ...(plans.length > 1 ? [names.reel.mp4, names.reel.vtt] : []), names.csv, names.json];
     const taken = all.filter((n) => listing.entries.some((e) => e.name === n));
     if (taken.length && !overwrite) return setConflict({ names: taken, dir: listing.path });
     await db.settings.put({ key: `exportFolder:${projectId}`, value: listing.path });
