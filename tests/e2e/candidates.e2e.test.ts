@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_DIR, ROOT, startApp, type RunningApp } from './harness.ts';
+import { DEMO_DIR, ROOT, SHOTS, startApp, type RunningApp } from './harness.ts';
 
 interface Truth {
   footage: { fps: number; durationS: number };
@@ -132,6 +132,23 @@ describe('Find candidates in the app (embedded ffmpeg core in a worker, range re
     expect(r.frames).toBe(290);
     expect(r.cuts.map((c) => c.frame)).toEqual([50, 100, 150, 190, 240]);
     expect(r.cuts.map((c) => c.t)).toEqual([2, 4, 6, 7.6, 9.6]);
+  });
+
+  it('the Find candidates panel: F starts with progress, Esc cancels, F again stores and says what', async () => {
+    const { page } = app;
+    const panel = page.getByRole('region', { name: 'Find candidates' });
+    await page.locator('body').press('f');
+    const bar = panel.getByRole('progressbar', { name: 'Finding candidates' });
+    await expect.poll(async () => Number((await bar.getAttribute('aria-valuenow').catch(() => null)) ?? -1), { timeout: 60_000 }).toBeGreaterThan(20);
+    await page.screenshot({ path: join(SHOTS, 'candidates-01-scanning.png') });
+    await page.locator('body').press('Escape');
+    await panel.getByText('Scan cancelled; nothing was changed.').waitFor({ timeout: 10_000 });
+    await page.screenshot({ path: join(SHOTS, 'candidates-02-cancelled.png') });
+    await panel.getByRole('button', { name: /Find candidates/ }).click();
+    const status = panel.getByRole('status').filter({ hasText: /^Stored/ });
+    await status.waitFor({ timeout: 170_000 });
+    expect(await status.innerText()).toMatch(/Stored \d+ whistles, 5 cuts and 3 proposed non-live stretches/);
+    await page.screenshot({ path: join(SHOTS, 'candidates-03-done.png') });
   });
 
   it('made no request outside the local host and no page errors', () => {

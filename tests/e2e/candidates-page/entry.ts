@@ -7,7 +7,10 @@ import { getDb } from '../../../renderer/src/db/database.ts';
 import { getHost } from '../../../renderer/src/host/index.ts';
 import { importFootage } from '../../../renderer/src/import/footage.ts';
 import { undo } from '../../../renderer/src/history/history.ts';
-import { confirmNonLive, rejectNonLive, scanFootage, type ScanProgress } from '../../../renderer/src/candidates/index.ts';
+import { createElement } from 'react';
+import { createRoot } from 'react-dom/client';
+import { confirmNonLive, FindCandidates, rejectNonLive, scanFootage, type ScanProgress } from '../../../renderer/src/candidates/index.ts';
+import '../../../renderer/src/styles.css';
 
 const db = getDb();
 const host = getHost();
@@ -75,4 +78,10 @@ const api = {
 };
 
 (globalThis as unknown as { candidates: typeof api }).candidates = api;
-document.getElementById('state')!.textContent = 'ready';
+
+/** The Find candidates panel on the check project, as a screen would show it (F, Esc). */
+async function showPanel() {
+  const { projectId, sourceId } = await setUp();
+  createRoot(document.getElementById('panel')!).render(createElement(FindCandidates, { db, projectId, footageSourceId: sourceId, user: 'tester', keys: true }));
+}
+void showPanel().then(() => (document.getElementById('state')!.textContent = 'ready'));
