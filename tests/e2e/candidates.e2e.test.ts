@@ -147,7 +147,8 @@ describe('Find candidates in the app (embedded ffmpeg core in a worker, range re
     await panel.getByRole('button', { name: /Find candidates/ }).click();
     const status = panel.getByRole('status').filter({ hasText: /^Stored/ });
     await status.waitFor({ timeout: 170_000 });
-    expect(await status.innerText()).toMatch(/Stored \d+ whistles, 5 cuts and 3 proposed non-live stretches/);
+    // 15 whistles, 5 cuts; 2 or 3 proposals (a replay confirmed by an earlier test is kept, not proposed again).
+    expect(await status.innerText()).toMatch(/Stored 15 whistles, 5 cuts and [23] proposed non-live stretches/);
     await page.screenshot({ path: join(SHOTS, 'candidates-03-done.png') });
   });
 
