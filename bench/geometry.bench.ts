@@ -77,7 +77,7 @@ race('RANSAC, 30 landmarks with 30 % outliers, 3 px', 200, {
 // 3–5. Per frame, 22 players.
 function frame(seed: number): { spots: PlayerSpot[]; ball: { x: number; y: number } } {
   const rnd = seededRandom(seed);
-  const spots = Array.from({ length: 22 }, (_, i): PlayerSpot => ({ id: `p${i}`, team: i < 11 ? 'home' : 'away', x: (rnd() - 0.5) * 100, y: (rnd() - 0.5) * 64, keeper: i === 0 || i === 11 }));
+  const spots = Array.from({ length: 22 }, (_, i): PlayerSpot => ({ id: `p${i}`, team: i < 11 ? 'home' : 'away', x: (rnd() - 0.5) * 100, y: (rnd() - 0.5) * 64, goalkeeper: i === 0 || i === 11 }));
   return { spots, ball: { x: (rnd() - 0.5) * 100, y: (rnd() - 0.5) * 64 } };
 }
 const frames = Array.from({ length: 256 }, (_, k) => frame(k + 1));
@@ -125,7 +125,7 @@ race('Voronoi space, 22 players clipped to 105 × 68 m', 2000, {
   'half-plane clipping, O(n²) (not used)': (i) => halfPlaneAreas(frames[i & 255].spots),
 });
 
-const depths = frames.map((f) => f.spots.filter((p) => p.team === 'home' && !p.keeper).map((p) => p.x));
+const depths = frames.map((f) => f.spots.filter((p) => p.team === 'home' && !p.goalkeeper).map((p) => p.x));
 race('Jenks natural breaks, 10 outfield depths into 3 lines', 20000, {
   'ours: jenksGroups': (i) => jenksGroups(depths[i & 255], 3),
   'simple-statistics ckmeans': (i) => ckmeans(depths[i & 255], 3),

@@ -36,3 +36,4 @@ export { jenksGroups } from './geometry/jenks.ts';
 export { offsideLine, backLine, teamLines, playerDistance, guessKeepers, attackSign, type PlayerSpot, type OffsideLine, type TeamLine, type HomeAttacks } from './geometry/lines.ts';
 export { convexHull, polygonArea, teamShape, type TeamShape } from './geometry/shape.ts';
 export { pitchSpace, type SpaceCell, type TeamSpace } from './geometry/space.ts';
+export { frameGeometry, type FrameGeometry, type TeamFrameGeometry } from './geometry/frame-geometry.ts';

@@ -13,7 +13,7 @@ export interface PlayerSpot {
   x: number;
   y: number;
   /** The team's goalkeeper (excluded from the back line, team lines and shape). */
-  keeper?: boolean;
+  goalkeeper?: boolean;
 }
 
 export type HomeAttacks = 'positive_x' | 'negative_x';
@@ -58,7 +58,7 @@ export function offsideLine(spots: readonly PlayerSpot[], ball: { x: number; y: 
  */
 export function backLine(spots: readonly PlayerSpot[], team: TeamSide, homeAttacks: HomeAttacks): { x: number; playerId: string } | null {
   const a = attackSign(team, homeAttacks);
-  const out = spots.filter((p) => p.team === team && !p.keeper && Number.isFinite(p.x));
+  const out = spots.filter((p) => p.team === team && !p.goalkeeper && Number.isFinite(p.x));
   if (out.length === 0) return null;
   const deepest = out.reduce((m, p) => (a * p.x < a * m.x ? p : m));
   return { x: deepest.x, playerId: deepest.id };
@@ -80,7 +80,7 @@ export interface TeamLine {
  */
 export function teamLines(spots: readonly PlayerSpot[], team: TeamSide, homeAttacks: HomeAttacks, k = 3): TeamLine[] {
   const a = attackSign(team, homeAttacks);
-  const out = spots.filter((p) => p.team === team && !p.keeper && Number.isFinite(p.x));
+  const out = spots.filter((p) => p.team === team && !p.goalkeeper && Number.isFinite(p.x));
   // Group on depth (a·x) so the groups come out ordered from the own goal forwards.
   const groups = jenksGroups(out.map((p) => a * p.x), k);
   const used = new Set<string>();

@@ -60,7 +60,7 @@ export interface TeamShape {
  * `teamShape(spots, 'home') -> { length: 38.5, width: 41.2, area: 980, hull: [...], playerCount: 10 }`
  */
 export function teamShape(spots: readonly PlayerSpot[], team: TeamSide): TeamShape | null {
-  const pts = spots.filter((p) => p.team === team && !p.keeper && Number.isFinite(p.x) && Number.isFinite(p.y)).map((p): Vec2 => [p.x, p.y]);
+  const pts = spots.filter((p) => p.team === team && !p.goalkeeper && Number.isFinite(p.x) && Number.isFinite(p.y)).map((p): Vec2 => [p.x, p.y]);
   if (pts.length === 0) return null;
   const hull = convexHull(pts);
   const xs = pts.map((p) => p[0]);

@@ -33,7 +33,7 @@ describe('Jenks natural breaks against simple-statistics ckmeans (npm)', () => {
 });
 
 /** Away defends the +x goal when home attacks +x. */
-const spot = (id: string, team: 'home' | 'away', x: number, y = 0, keeper = false): PlayerSpot => ({ id, team, x, y, keeper });
+const spot = (id: string, team: 'home' | 'away', x: number, y = 0, goalkeeper = false): PlayerSpot => ({ id, team, x, y, goalkeeper });
 const away = [spot('a1', 'away', 50, 0, true), spot('a2', 'away', 30, -10), spot('a3', 'away', 28, 10), spot('a4', 'away', 20, 0), spot('a5', 'away', 5, 3)];
 
 describe('offside line (IFAB Laws of the Game, Law 11)', () => {
@@ -80,5 +80,19 @@ describe('back line, team lines, distance, keepers', () => {
   });
   it('guesses the keeper as the deepest player by median x', () => {
     expect(guessKeepers([{ id: 'h1', team: 'home', xs: [-48, -47, 10] }, { id: 'h2', team: 'home', xs: [-30, -31] }, { id: 'a1', team: 'away', xs: [49, 50] }, { id: 'a2', team: 'away', xs: [20] }], 'positive_x')).toEqual({ home: 'h1', away: 'a1' });
+  });
+});
+
+describe('frameGeometry: all layers of one moment', () => {
+  it('agrees with the single functions and covers the pitch', async () => {
+    const { frameGeometry } = await import('../../../engine/geometry/frame-geometry.ts');
+    const home = [spot('h1', 'home', -50, 0, true), spot('h2', 'home', -20, -5), spot('h3', 'home', -22, 5), spot('h4', 'home', 0, 0)];
+    const g = frameGeometry([...home, ...away], { x: 3, y: -1 }, 'positive_x', { length: 105, width: 68 });
+    expect(g.away.offside).toEqual({ x: 30, by: 'second_last_defender', playerId: 'a2' });
+    // Home defends the −x goal: second-last defender is h3 at −22.
+    expect(g.home.offside).toEqual({ x: -22, by: 'second_last_defender', playerId: 'h3' });
+    expect(g.home.back).toEqual({ x: -22, playerId: 'h3' });
+    expect(g.home.shape!.playerCount).toBe(3);
+    expect(g.space.area.home + g.space.area.away).toBeCloseTo(105 * 68, 6);
   });
 });

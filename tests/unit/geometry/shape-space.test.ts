@@ -10,7 +10,7 @@ const PITCH = { length: 105, width: 68 };
 
 function randomPlayers(seed: number, n = 22): PlayerSpot[] {
   const rnd = seededRandom(seed);
-  return Array.from({ length: n }, (_, i) => ({ id: `p${i}`, team: i < n / 2 ? ('home' as const) : ('away' as const), x: (rnd() - 0.5) * 104, y: (rnd() - 0.5) * 67, keeper: i === 0 || i === n / 2 }));
+  return Array.from({ length: n }, (_, i) => ({ id: `p${i}`, team: i < n / 2 ? ('home' as const) : ('away' as const), x: (rnd() - 0.5) * 104, y: (rnd() - 0.5) * 67, goalkeeper: i === 0 || i === n / 2 }));
 }
 
 /** Reference cell by half-plane clipping (Sutherland–Hodgman): the rectangle cut by each perpendicular bisector. */
@@ -96,7 +96,7 @@ describe('shape', () => {
   });
   it('team length and width leave the goalkeeper out', () => {
     const spots: PlayerSpot[] = [
-      { id: 'g', team: 'home', x: -50, y: 0, keeper: true },
+      { id: 'g', team: 'home', x: -50, y: 0, goalkeeper: true },
       { id: 'a', team: 'home', x: -30, y: -20 },
       { id: 'b', team: 'home', x: -30, y: 20 },
       { id: 'c', team: 'home', x: -5, y: 0 },
