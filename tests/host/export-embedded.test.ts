@@ -10,7 +10,7 @@
  * - cancelling mid-way rejects and returns no bytes.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -133,6 +133,7 @@ describe('embedded export (WebCodecs + mediabunny in Debian Chromium)', () => {
     const src = plan.footage.inFrame + k;
     const rgb = frameOf(out, k, 'rgb24');
     const srcRgb = frameOf(join(DEMO, 'footage.mp4'), src, 'rgb24', `${W}:${H}`);
+    mkdirSync(join(ROOT, 'test-results'), { recursive: true }); // a fresh checkout has none yet
     execFileSync('ffmpeg', ['-v', 'error', '-y', '-i', out, '-vf', `select=eq(n\\,${k})`, '-frames:v', '1', join(ROOT, 'test-results/export-embedded-demo-frame.png')]);
 
     // Where each player stands at that frame: tracking.csv row nearest the fitted moment.
