@@ -245,3 +245,91 @@ describe('footage player on the screen', () => {
     expect(app.pageErrors).toEqual([]);
   });
 });
+
+describe('footage player with a footage clock fit (demo match)', () => {
+  it('reads out match clock and tracking frame through the newest fit, as the truth maps the frame on screen', async () => {
+    const { page } = app;
+    const truth = JSON.parse(readFileSync(join(DEMO_DIR, 'truth.json'), 'utf8')) as {
+      clocks: Record<'footage' | 'tracking' | 'events', { segments: { period: 1 | 2; fromT: number; toT: number; offset: number; rate: number; kind?: string }[] }>;
+      tracking: { rate: number; periods: { period: 1 | 2; firstFrame: number }[] };
+    };
+    if (!truth.clocks) return; // stand-in demo (no truth): nothing to compare with
+    const trk = (p: number) => truth.clocks.tracking.segments.find((s) => s.period === p)!;
+    const evt = (p: number) => truth.clocks.events.segments.find((s) => s.period === p)!;
+    // Truth: true = offset + rate * source time per clock. Footage -> tracking: s = (fo + fr f - to) / tr.
+    const seg = (period: 1 | 2, fromT: number, toT: number, offset: number, rate: number) => ({ period, fromT, toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe: 0, rateSe: 0, rmsResidual: 0, leaveOneOutMax: 0, points: [] });
+    const fit = { source: 'footage', method: 'huber', segments: truth.clocks.footage.segments.filter((s) => s.kind === 'live').map((s) => seg(s.period, s.fromT, s.toT, (s.offset - trk(s.period).offset) / trk(s.period).rate, s.rate / trk(s.period).rate)) };
+    const eventFit = { source: 'events', method: 'huber', segments: ([1, 2] as const).map((p) => seg(p, 0, 3000, (evt(p).offset - trk(p).offset) / trk(p).rate, evt(p).rate / trk(p).rate)) };
+    // The demo project is made on first start; store both fits beside it (raw IndexedDB, as Dexie would).
+    await page.goto(app.url);
+    await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 170_000 });
+    const ids = await page.evaluate(
+      async ({ fit, eventFit }) => {
+        const db = await new Promise<IDBDatabase>((ok, fail) => {
+          const r = indexedDB.open('whistlemark');
+          r.onsuccess = () => ok(r.result);
+          r.onerror = () => fail(r.error);
+        });
+        const all = <T,>(store: string) =>
+          new Promise<T[]>((ok, fail) => {
+            const r = db.transaction(store).objectStore(store).getAll();
+            r.onsuccess = () => ok(r.result as T[]);
+            r.onerror = () => fail(r.error);
+          });
+        const projects = await all<{ id: number; demo?: boolean }>('projects');
+        const projectId = projects.find((p) => p.demo)!.id;
+        const sources = await all<{ id: number; projectId: number; kind: string }>('sources');
+        const footage = sources.find((s) => s.projectId === projectId && s.kind === 'footage')!.id;
+        const events = sources.find((s) => s.projectId === projectId && s.kind === 'events')!.id;
+        await new Promise<void>((ok, fail) => {
+          const tx = db.transaction('clockFits', 'readwrite');
+          tx.objectStore('clockFits').add({ projectId, sourceId: footage, fit, createdAt: Date.now() });
+          tx.objectStore('clockFits').add({ projectId, sourceId: events, fit: eventFit, createdAt: Date.now() });
+          tx.oncomplete = () => ok();
+          tx.onerror = () => fail(tx.error);
+        });
+        db.close();
+        return { projectId, footage };
+      },
+      { fit, eventFit },
+    );
+    await page.goto(`${new URL(app.url).origin}/#footage-check?project=${ids.projectId}&source=${ids.footage}`);
+    await page.reload();
+    await expect.poll(() => frameText(page), { timeout: 60_000 }).toMatch(/^0 \//);
+    const pts = ffprobeTableOf(join(DEMO_DIR, 'footage.ffprobe.json'));
+    const check = async (frame: number) => {
+      await page.getByLabel('Clock').selectOption('frame');
+      await page.getByLabel(/^Moment/).fill(String(frame));
+      await page.getByLabel(/^Moment/).press('Enter');
+      await expect.poll(() => frameText(page)).toMatch(new RegExp(`^${frame} /`));
+      const f = pts[frame];
+      const s = truth.clocks.footage.segments.find((q) => q.kind === 'live' && f >= q.fromT && f <= q.toT)!;
+      const trueT = s.offset + s.rate * f;
+      const tS = (trueT - trk(s.period).offset) / trk(s.period).rate;
+      const first = truth.tracking.periods.find((p) => p.period === s.period)!.firstFrame;
+      const e = (trueT - evt(s.period).offset) / evt(s.period).rate;
+      const tenths = Math.floor(((s.period === 2 ? 2700 : 0) + e) * 10 + 1e-6);
+      const clock = `${String(Math.floor(tenths / 600)).padStart(2, '0')}:${String(Math.floor((tenths % 600) / 10)).padStart(2, '0')}.${tenths % 10}`;
+      expect(await page.getByTestId('readout-match').innerText()).toBe(`${clock} · P${s.period}`);
+      expect(Math.abs(Number(await page.getByTestId('readout-tracking').innerText()) - (first + tS * truth.tracking.rate))).toBeLessThanOrEqual(0.5 + 1e-6);
+    };
+    // First period, and the second period after the half-time cut (footage kick-off 2 near 251.5 s).
+    await check(1500);
+    await check(Math.round(252 * 25));
+    await check(Math.round(400 * 25));
+    await shot(page, 'player-demo-fit');
+    // Typed match clock goes to the frame showing it.
+    await page.getByLabel('Clock').selectOption('match');
+    await page.getByLabel(/^Moment/).fill('47:00.0');
+    await page.getByLabel(/^Moment/).press('Enter');
+    await expect.poll(() => page.getByTestId('readout-match').innerText()).toMatch(/^4[67]:[05]\d\.\d · P2$/);
+    expect(app.outsideRequests).toEqual([]);
+  });
+});
+
+function ffprobeTableOf(file: string): number[] {
+  // fixtures/demo/footage.ffprobe.json: ffprobe -show_frames, trimmed to the video frames.
+  const j = JSON.parse(readFileSync(file, 'utf8')) as { video_frames: { pts_time: string }[] };
+  const t = j.video_frames.map((f) => Number(f.pts_time)).sort((a, b) => a - b);
+  return t.map((v) => v - t[0]);
+}
