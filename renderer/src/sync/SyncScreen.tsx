@@ -124,7 +124,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
         ...(tracking ? { pairedWith: tracking.id, pairedAnchorId: tracking.anchor.id } : {}),
       };
       const paired = tracking ? ` ↔ ${kindWord(tracking.anchor.kind)} at tracking ${clockText(tracking.anchor.t)} (period ${tracking.anchor.period})` : '';
-      await save(`mark ${kindWord(kind)} at footage ${clockText(t)} (frame ${frame})${paired}`, [{ table: 'anchors', after: row }], [...inputs.footageRows, { ...row, id: -1 }]);
+      await save(`mark ${kindWord(kind)} at footage ${clockText(t)} (frame ${frame})${paired}`, [{ table: 'anchors', after: row }], [...inputs.footageRows, row]);
     },
     [inputs, state, frameT, probe, projectId, save, control],
   );

@@ -60,8 +60,8 @@ export function pairsOf(footageRows: AnchorRow[], trackingRows: AnchorRow[]): Fo
   return out;
 }
 
-/** Ids the engine sees: the database row ids, as text. */
-export const rowKey = (r: AnchorRow) => String(r.id);
+/** Ids the engine sees: the database row id as text; a row not yet written goes by its anchor id. */
+export const rowKey = (r: AnchorRow) => (r.id !== undefined ? String(r.id) : r.anchor.id);
 
 export function computeSync(inp: SyncInputs): SyncState {
   const pairs = pairsOf(inp.footageRows, inp.trackingRows);
