@@ -141,7 +141,7 @@ describe('Sync on the demo match', () => {
     await page.keyboard.press('f');
     await page.getByRole('status', { name: 'Finding candidates' }).waitFor({ timeout: 10_000 });
     await page.keyboard.press('Escape');
-    await page.getByTestId('sync-message').getByText('Finding candidates was cancelled; nothing was stored.').waitFor({ timeout: 20_000 });
+    await page.getByTestId('sync-message').getByText('Finding candidates was cancelled; nothing was stored.').waitFor({ timeout: 120_000 });
     expect((await stored(page)).footageAnchors).toEqual(before.footageAnchors);
     expect(app.pageErrors).toEqual([]);
   });
