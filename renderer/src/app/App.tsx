@@ -60,7 +60,7 @@ export function App({ services }: { services: AppServices }) {
           <NavRail current={screen ?? 'sources'} onChoose={chooseScreen} />
           <main className="main" aria-busy={!ready || seeding}>
             {seedError && <p className="error-text" role="alert">{seedError}</p>}
-            {seed && <SeedBanner steps={seed} onDismiss={seeding ? undefined : () => setSeed(null)} />}
+            {seed && (seeding || screen === 'sources') && <SeedBanner steps={seed} onDismiss={seeding ? undefined : () => setSeed(null)} />}
             {ready && current && screen === 'sources' && <SourcesScreen key={current.id} projectId={current.id!} busyElsewhere={seeding} />}
             {ready && current && !seeding && <AnalysisAutoRun key={`analysis-${current.id}`} projectId={current.id!} />}
             {ready && current && !seeding && screen === 'sync' && <SyncScreen key={current.id} projectId={current.id!} />}
