@@ -11,14 +11,12 @@ import { useServices } from '../app/context.ts';
 import { ConfirmDialog } from '../app/Dialogs.tsx';
 import { useLive } from '../app/useLive.ts';
 import type { EventRow, ExportJobRow } from '../db/rows.ts';
-import { LAYER_IDS } from '../overlay/contract.ts';
+import { LAYER_MENU } from '../overlay/layers/index.ts';
 import { matchClockText, trackingToEventClock, type ClipPlan } from '../export-clips/plan.ts';
 import { loadExportContext, outputNames, planClips, queueExport, requeueInterrupted, runQueue, type ExportContext } from '../export-clips/run-export.ts';
 import { eventToTracking, eventsMatching, kindWord, spanFromPoints, spansFromEvents, type EventFilter } from './clip-rules.ts';
 import { addClips, addReel, clipsOfReel, deleteClips, deleteReel, mergeClipsInReel, moveClip, renameReel, updateClip, type StoredClip } from './reel-actions.ts';
 import './reels.css';
-
-const LAYER_NAMES: Record<string, string> = { dots: 'Dots', ball: 'Ball', trails: 'Trails', offside: 'Offside line', backLine: 'Back line', teamLines: 'Team lines', distance: 'Distance', hull: 'Shape', extent: 'Extent', space: 'Space' };
 
 /** "12:04" / "46:10.5" (match clock) -> seconds since the period's start. */
 export function parseClock(text: string, period: number | undefined): number | undefined {
@@ -445,16 +443,17 @@ function ClipList({ clips, planned, eventFit, reelId, ctx, safe }: ListProps) {
                 onBlur={(e) => e.target.value !== (c.note ?? '') && void safe(() => updateClip(db, ctx, c.id, { note: e.target.value }, `note on clip ${i + 1}`))}
               />
               <div className="clip-layers" role="group" aria-label={`Overlay layers of clip ${i + 1}`}>
-                {LAYER_IDS.map((id) => {
+                {/* The layers Watch lists (the same renderer draws them), in its reading order. */}
+                {LAYER_MENU.map(({ id, title }) => {
                   const on = (c.layers ?? []).includes(id);
                   return (
                     <button
                       key={id}
                       className={on ? 'chip on' : 'chip'}
                       aria-pressed={on}
-                      onClick={() => safe(() => updateClip(db, ctx, c.id, { layers: on ? (c.layers ?? []).filter((x) => x !== id) : [...(c.layers ?? []), id] }, `${on ? 'hide' : 'show'} ${LAYER_NAMES[id] ?? id} on clip ${i + 1}`))}
+                      onClick={() => safe(() => updateClip(db, ctx, c.id, { layers: on ? (c.layers ?? []).filter((x) => x !== id) : [...(c.layers ?? []), id] }, `${on ? 'hide' : 'show'} ${title} on clip ${i + 1}`))}
                     >
-                      {LAYER_NAMES[id] ?? id}
+                      {title}
                     </button>
                   );
                 })}
