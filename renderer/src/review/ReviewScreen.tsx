@@ -77,10 +77,27 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
   if (index < 0 && shownItems.length) index = Math.max(0, nextOpen(shownItems, -1));
   const item: QueueItem | undefined = shownItems[index];
 
+  // Key presses can come faster than the database answers: decisions run one after another
+  // on the rows as they are then, on the item selected then.
+  const chain = useRef<Promise<void>>(Promise.resolve());
+  const selectedRef = useRef<number | undefined>(undefined);
+  const itemsRef = useRef<QueueItem[]>(shownItems);
+  itemsRef.current = shownItems;
+  if (item) selectedRef.current ??= item.correction.id;
+  const select = useCallback((id: number | undefined) => {
+    selectedRef.current = id;
+    setSelectedId(id);
+  }, []);
+  const enqueue = useCallback((job: () => Promise<void>) => {
+    chain.current = chain.current.then(job).catch((e) => setMessage(`Not changed: ${(e as Error).message}`));
+    return chain.current;
+  }, []);
+
+
   // Keep the selection on an item of the list, and the queue focused on arrival.
   useEffect(() => {
-    if (item && item.correction.id !== selectedId) setSelectedId(item.correction.id);
-  }, [item, selectedId]);
+    if (item && item.correction.id !== selectedId) select(item.correction.id);
+  }, [item, selectedId, select]);
   useEffect(() => {
     queueRef.current?.focus();
   }, [corrections === undefined]);
@@ -94,41 +111,48 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
   }, [message]);
 
   const apply = useCallback(
-    async (d: Decision, target: QueueItem | undefined = item) => {
-      if (!target) return;
-      try {
-        const changes = decisionChanges(d, target.correction, target.event, eventFit, rate);
-        await commit(db, { projectId, user: info.userName, subject: 'correction', what: decisionWhat(d, target.event), changes });
+    (d: Decision) =>
+      enqueue(async () => {
+        const items = itemsRef.current;
+        const target = items.find((i) => i.correction.id === selectedRef.current) ?? items[0];
+        if (!target) return;
+        const c = await db.corrections.get(target.correction.id!);
+        const e = await db.events.get(target.event.id!);
+        if (!c || !e) throw new Error('this correction is no longer in the project (deleted or re-analysed meanwhile).');
+        await commit(db, { projectId, user: info.userName, subject: 'correction', what: decisionWhat(d, e), changes: decisionChanges(d, c, e, eventFit, rate) });
         if (d.type === 'accept' || d.type === 'reject') {
           // On to the next open one (in the list as it will be after this decision).
-          const after = shownItems.map((i) => (i === target ? { ...i, open: false } : i));
-          const n = nextOpen(after, shownItems.indexOf(target));
-          if (n >= 0) setSelectedId(after[n].correction.id);
+          const after = items.map((i) => (i === target ? { ...i, open: false } : i));
+          const n = nextOpen(after, items.indexOf(target));
+          if (n >= 0) select(after[n].correction.id);
           setMoment('proposed');
         }
-      } catch (e) {
-        setMessage(`Not changed: ${(e as Error).message}`);
-      }
-    },
-    [db, projectId, info.userName, item, eventFit, rate, shownItems],
+      }),
+    [db, projectId, info.userName, eventFit, rate, enqueue, select],
   );
 
-  const acceptAbove = useCallback(async () => {
-    const take = openAbove(shownItems, threshold);
-    if (!take.length) return setMessage(`No open proposal in the list has a confidence of ${Math.round(threshold * 100)} % or more.`);
-    const changes = take.flatMap((i) => decisionChanges({ type: 'accept' }, i.correction, i.event, eventFit, rate));
-    try {
-      await commit(db, { projectId, user: info.userName, subject: 'correction', what: `accept ${take.length} corrections with confidence ≥ ${Math.round(threshold * 100)} %`, changes });
-      setMessage(`Accepted ${take.length} proposals with confidence ≥ ${Math.round(threshold * 100)} % (Ctrl+Z takes them all back).`);
-      // On to the first one still open.
-      const taken = new Set(take);
-      const after = shownItems.map((i) => (taken.has(i) ? { ...i, open: false } : i));
-      const n = nextOpen(after, -1);
-      if (n >= 0) setSelectedId(after[n].correction.id);
-    } catch (e) {
-      setMessage(`Not changed: ${(e as Error).message}`);
-    }
-  }, [db, projectId, info.userName, shownItems, threshold, eventFit, rate]);
+  const acceptAbove = useCallback(
+    () =>
+      enqueue(async () => {
+        const items = itemsRef.current;
+        const take = openAbove(items, threshold);
+        if (!take.length) return setMessage(`No open proposal in the list has a confidence of ${Math.round(threshold * 100)} % or more.`);
+        const changes = [];
+        for (const i of take) {
+          const c = await db.corrections.get(i.correction.id!);
+          const e = await db.events.get(i.event.id!);
+          if (c && e && c.status === 'proposed') changes.push(...decisionChanges({ type: 'accept' }, c, e, eventFit, rate));
+        }
+        await commit(db, { projectId, user: info.userName, subject: 'correction', what: `accept ${take.length} corrections with confidence ≥ ${Math.round(threshold * 100)} %`, changes });
+        setMessage(`Accepted ${take.length} proposals with confidence ≥ ${Math.round(threshold * 100)} % (Ctrl+Z takes them all back).`);
+        // On to the first one still open.
+        const taken = new Set(take);
+        const after = items.map((i) => (taken.has(i) ? { ...i, open: false } : i));
+        const n = nextOpen(after, -1);
+        if (n >= 0) select(after[n].correction.id);
+      }),
+    [db, projectId, info.userName, threshold, eventFit, rate, enqueue, select],
+  );
 
   const act = useCallback(
     (a: ReviewAction) => {
@@ -153,14 +177,14 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
           return void acceptAbove();
         case 'nextOpen': {
           const n = nextOpen(shownItems, index);
-          if (n >= 0) setSelectedId(shownItems[n].correction.id);
+          if (n >= 0) select(shownItems[n].correction.id);
           else setMessage('No open proposal left in this list.');
           return;
         }
         case 'prev':
         case 'next': {
           const n = Math.max(0, Math.min(shownItems.length - 1, index + (a === 'next' ? 1 : -1)));
-          if (shownItems[n]) setSelectedId(shownItems[n].correction.id);
+          if (shownItems[n]) select(shownItems[n].correction.id);
           return;
         }
         case 'help':
@@ -169,7 +193,7 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
           return setHelp(false);
       }
     },
-    [apply, acceptAbove, shownItems, index],
+    [apply, acceptAbove, shownItems, index, select],
   );
 
   useEffect(() => {
@@ -295,7 +319,7 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
                 data-status={i.correction.status}
                 className="rq-item"
                 onClick={() => {
-                  setSelectedId(i.correction.id);
+                  select(i.correction.id);
                   queueRef.current?.focus();
                 }}
               >
