@@ -3,9 +3,35 @@
  * (analysis worker on the stored sources) fills the queue; accept, reject and edit by keys,
  * undo, reload; then the whole review finished from the keyboard, keystrokes counted.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { shot, startApp, type RunningApp } from './harness.ts';
+import { trackingToFootage } from '../../engine/fit/footage-map.ts';
+import type { Truth } from '../../fixtures/sim/index.ts';
+import type { ClockFit } from '../../shared-types/index.ts';
+import { DEMO_DIR, ROOT, shot, startApp, type RunningApp } from './harness.ts';
+
+const usingDemo = DEMO_DIR.endsWith('fixtures/demo');
+
+/**
+ * A footage clock fit made from the demo truth (fixtures/demo/truth.json), standing in for
+ * the one the Sync screen makes: per live footage segment, tracking = (true - tracking
+ * offset) / tracking rate, true = footage offset + rate * footage time.
+ */
+function footageFitFromTruth(): ClockFit {
+  const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
+  const trk = truth.clocks.tracking!.segments;
+  const segments = truth.clocks.footage!.segments
+    .filter((s) => s.kind !== 'replay')
+    .map((s) => {
+      const ts = trk.find((q) => q.period === s.period)!;
+      const offset = (s.offset - ts.offset) / ts.rate;
+      const rate = s.rate / ts.rate;
+      return { period: s.period, fromT: s.fromT, toT: s.toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe: 0, rateSe: 0, rmsResidual: 0, leaveOneOutMax: 0, points: [] };
+    });
+  return { source: 'footage', method: 'huber', segments };
+}
 
 let app: RunningApp;
 beforeAll(async () => {
@@ -146,5 +172,40 @@ describe('Review on the demo match', () => {
     await shot(page, 'review-finished');
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);
+  });
+
+  it.runIf(usingDemo)('cues the footage at the moment under review when a footage fit exists', async () => {
+    const { page } = app;
+    const fit = footageFitFromTruth();
+    await page.evaluate(async (fit) => {
+      const db: IDBDatabase = await new Promise((res, rej) => {
+        const r = indexedDB.open('whistlemark');
+        r.onsuccess = () => res(r.result);
+        r.onerror = () => rej(r.error);
+      });
+      const sources = await new Promise<{ id: number; projectId: number; kind: string }[]>((res) => {
+        const r = db.transaction('sources').objectStore('sources').getAll();
+        r.onsuccess = () => res(r.result);
+      });
+      const footage = sources.find((s) => s.kind === 'footage')!;
+      const tx = db.transaction(['clockFits'], 'readwrite');
+      tx.objectStore('clockFits').add({ projectId: footage.projectId, sourceId: footage.id, fit, createdAt: Date.now() });
+      await new Promise((res) => (tx.oncomplete = res));
+      db.close();
+    }, fit);
+    // Written past Dexie, so the page sees it after a reload.
+    await page.reload();
+    await page.getByTestId('review-footage').waitFor({ timeout: 30_000 });
+    // The one selected; its proposed moment through the fit gives the footage frame to expect.
+    const id = await selectedEventId(page);
+    const c = (await rowsOf<Corr & { proposal: { trackingPeriod: number } }>(page, 'corrections')).find((r) => r.eventId === id)!;
+    const t = c.edited?.t ?? c.proposal.trackingTime;
+    const tf = trackingToFootage(fit, c.proposal.trackingPeriod, t, 1)!;
+    await page.waitForFunction(() => document.querySelector('[data-testid="review-footage"]')?.getAttribute('data-frame') !== '', undefined, { timeout: 30_000 });
+    const frame = Number(await page.getByTestId('review-footage').getAttribute('data-frame'));
+    // Demo footage: constant 25 fps from 0 (fixtures/README.md), so footage time tf is frame floor(tf * 25).
+    expect(Math.abs(frame - Math.floor(tf * 25 + 1e-6))).toBeLessThanOrEqual(1);
+    await page.waitForTimeout(300);
+    await shot(page, 'review-with-footage');
   });
 });

@@ -1,36 +1,26 @@
 /**
- * The footage cued at the moment under review, through the shared player contract and the
- * newest footage clock fit (tracking -> footage time by engine/fit/footage-map.ts).
+ * The footage cued at the moment under review: the shared player (renderer/src/player/)
+ * on the project's footage, sought through the newest footage clock fit (tracking ->
+ * footage time by engine/fit/footage-map.ts). The player keeps its own keys.
  */
-import { useEffect, useRef, useState } from 'react';
-import type { ClockFit, FootageProbe, PeriodId } from '../../../shared-types/index.ts';
+import { useEffect, useState } from 'react';
+import type { ClockFit, PeriodId } from '../../../shared-types/index.ts';
 import { trackingToFootage } from '../../../engine/fit/footage-map.ts';
-import { useServices } from '../app/context.ts';
-import { useFootagePlayer } from '../watch/use-footage-player.ts';
+import { FootagePlayer, useFootageSource, type FootagePlayerControl } from '../player/index.ts';
 
 export interface ReviewFootageProps {
-  path: string;
-  fileName: string;
-  probe: FootageProbe;
+  projectId: number;
+  footageSourceId: number;
   fit: ClockFit;
   period: PeriodId;
   /** Tracking seconds of the moment to show. */
   t: number;
 }
 
-export function ReviewFootage({ path, fileName, probe, fit, period, t }: ReviewFootageProps) {
-  const { host } = useServices();
-  const [url, setUrl] = useState<string>();
-  const [error, setError] = useState('');
-  const ref = useRef<HTMLVideoElement | null>(null);
-  const player = useFootagePlayer(ref, url, probe);
+export function ReviewFootage({ projectId, footageSourceId, fit, period, t }: ReviewFootageProps) {
+  const footage = useFootageSource(projectId, footageSourceId);
+  const [player, setPlayer] = useState<FootagePlayerControl | null>(null);
   const [shown, setShown] = useState<number>();
-  useEffect(() => {
-    host
-      .openPaths([path])
-      .then((f) => setUrl(f[0]?.url))
-      .catch((e) => setError(`The footage ${fileName} could not be opened: ${(e as Error).message}. Relink it on the Sources screen (Alt+1).`));
-  }, [host, path, fileName]);
   const tf = trackingToFootage(fit, period, t, 1);
   useEffect(() => {
     if (!player || tf === undefined) return;
@@ -42,18 +32,16 @@ export function ReviewFootage({ path, fileName, probe, fit, period, t }: ReviewF
     };
   }, [player, tf]);
   return (
-    <div className="review-footage">
-      <video ref={ref} muted playsInline preload="auto" aria-label={`Footage ${fileName}`} data-testid="review-video" data-frame={shown ?? ''} />
+    <div className="review-footage" data-testid="review-footage" data-frame={shown ?? ''}>
+      {footage.error ? (
+        <p className="error-text small">{footage.error}</p>
+      ) : footage.src && footage.probe ? (
+        <FootagePlayer src={footage.src} probe={footage.probe} {...(footage.mediaOffset !== undefined ? { mediaOffset: footage.mediaOffset } : {})} clocks={footage.clocks} onControl={setPlayer} label="Footage at the moment under review" />
+      ) : (
+        <p className="muted small">Opening the footage…</p>
+      )}
       <p className="small muted">
-        {error ? (
-          <span className="error-text">{error}</span>
-        ) : tf === undefined ? (
-          'This moment is outside the footage clock fit (not in the recording, or in a gap).'
-        ) : (
-          <>
-            Footage {tf.toFixed(2)} s{shown !== undefined ? ` · frame ${shown}` : ''}
-          </>
-        )}
+        {tf === undefined ? 'This moment is outside the footage clock fit (not in the recording, or in a gap).' : `Cued at footage ${tf.toFixed(2)} s${shown !== undefined ? ` (frame ${shown})` : ''}.`}
       </p>
     </div>
   );

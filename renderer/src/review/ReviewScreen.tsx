@@ -204,8 +204,9 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
       e.preventDefault();
       act(a);
     };
-    window.addEventListener('keydown', onKey);
-    return () => window.removeEventListener('keydown', onKey);
+    // Capture phase: ahead of the player's own keys (↑/↓ are the queue's while it has focus).
+    window.addEventListener('keydown', onKey, true);
+    return () => window.removeEventListener('keydown', onKey, true);
   }, [act]);
 
   const teams = log?.teams ?? {};
@@ -353,7 +354,7 @@ export function ReviewScreen({ projectId }: { projectId: number }) {
               changed={changedUnder.get(item.event.eventId)}
               trackingSourceId={sources?.trackingSourceId}
               meta={meta}
-              footage={footageSource && probe ? { path: footageSource.path, fileName: footageSource.fileName, probe } : undefined}
+              footage={footageSource?.id !== undefined && probe ? { projectId, sourceId: footageSource.id } : undefined}
               footageFit={footageFit}
               onAct={act}
               onPlace={(x, y) => void apply({ type: 'place', x, y })}
@@ -386,7 +387,7 @@ interface DetailProps {
   changed?: AnalysisRun['changedUnderDecided'][number];
   trackingSourceId?: number;
   meta?: { pitch: { length: number; width: number }; objects: { team?: string; shirt?: number; role: string; id: string }[]; ballIndex: number; periods: { period: number }[] };
-  footage?: { path: string; fileName: string; probe: NonNullable<Parameters<typeof ReviewFootage>[0]['probe']> };
+  footage?: { projectId: number; sourceId: number };
   footageFit?: ClockFit;
   onAct: (a: ReviewAction) => void;
   onPlace: (x: number, y: number) => void;
@@ -516,7 +517,7 @@ function Detail({ item, moment, rate, teams, changed, trackingSourceId, meta, fo
 
       <div className={`rd-views${footage && footageFit ? '' : ' pitch-only'}`}>
         {footage && footageFit ? (
-          <ReviewFootage path={footage.path} fileName={footage.fileName} probe={footage.probe} fit={footageFit} period={item.period} t={tShown} />
+          <ReviewFootage projectId={footage.projectId} footageSourceId={footage.sourceId} fit={footageFit} period={item.period} t={tShown} />
         ) : (
           <p className="rd-nofootage small muted" data-testid="rd-nofootage">
             {footage ? 'No footage clock fit yet, so the footage cannot be cued: make one on the Sync screen (Alt+2). Showing the pitch view only.' : 'No footage in this project: showing the pitch view only.'}
