@@ -4,6 +4,9 @@
  * programme of Wang & Song 2011, "Ckmeans.1d.dp"). Written here for the few values of a
  * team (≤ 10 outfield players), where the O(k·n²) programme with prefix sums is tiny;
  * checked against simple-statistics' ckmeans in tests/unit/geometry/lines.test.ts.
+ * simple-statistics is only a devDependency; its ckmeans is about 4× faster here
+ * (1.5 vs 6.4 µs per team and frame, bench/geometry.bench.ts), which does not matter at
+ * two calls a frame — if it ever moves to dependencies, use it instead.
  */
 
 /**

@@ -53,7 +53,7 @@ describe('offside line (IFAB Laws of the Game, Law 11)', () => {
     expect(offsideLine(deep, { x: -30, y: 0 }, 'away', 'positive_x')).toEqual({ x: 0, by: 'halfway' });
   });
   it('follows the direction of attack of the period', () => {
-    // Second half: home attacks −x, so home defends +x... and away defends −x.
+    // Second half: home attacks −x, so away defends the −x goal.
     const mirrored = away.map((p) => ({ ...p, x: -p.x }));
     expect(offsideLine(mirrored, { x: -10, y: 0 }, 'away', 'negative_x')).toEqual({ x: -30, by: 'second_last_defender', playerId: 'a2' });
     expect(attackSign('away', 'negative_x')).toBe(1);
