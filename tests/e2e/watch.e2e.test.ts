@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_SIM } from '../../fixtures/sim/demo-config.ts';
+import { pitchModel } from '../../engine/geometry/pitch-model.ts';
 import { sampleAt, simulateMatch, type Truth } from '../../fixtures/sim/index.ts';
 import { deltaE76, simulate, type Rgb } from '../unit/overlay/colour-vision.ts';
 import { DEMO_DIR, ROOT, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
@@ -198,31 +199,11 @@ afterAll(async () => {
 /** Keyframes of the registration: one second apart while the camera pans. */
 const KEYFRAMES = [1750, 1775];
 
-/** Development scaffold until the clicks land: the registration row from the truth homography. */
-async function writeTruthRegistration(page: Page) {
-  const data = { schema: 'whistlemark-registration/1', imageWidth: 640, imageHeight: 360, keyframes: KEYFRAMES.map((f) => ({ frame: f, t: f / 25, pairs: [], errors: [], homography: truthH.frames[f] })) };
-  await page.evaluate(async (data) => {
-    const db: IDBDatabase = await new Promise((res) => {
-      const r = indexedDB.open('whistlemark');
-      r.onsuccess = () => res(r.result);
-    });
-    const tx = db.transaction(['sources', 'pitchRegistrations'], 'readwrite');
-    const req = tx.objectStore('sources').getAll();
-    req.onsuccess = () => {
-      const f = (req.result as { id: number; projectId: number; kind: string }[]).find((s) => s.kind === 'footage')!;
-      tx.objectStore('pitchRegistrations').add({ projectId: f.projectId, footageSourceId: f.id, data, updatedAt: Date.now() });
-    };
-    await new Promise((res) => (tx.oncomplete = res));
-    db.close();
-  }, data);
-}
-
 describe.runIf(usingDemo)('Watch screen on the demo match', () => {
   it('opens with the demo, a fit from truth and the overlay canvases', async () => {
     const { page } = app;
     await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 200_000 });
     await writeFitAndNonLive(page);
-    await writeTruthRegistration(page);
     await page.reload();
     await page.getByRole('navigation', { name: 'Screens' }).waitFor();
     await page.keyboard.press('Alt+4');
@@ -235,9 +216,56 @@ describe.runIf(usingDemo)('Watch screen on the demo match', () => {
     expect(app.outsideRequests).toEqual([]);
   });
 
+  it('registers the pitch on two keyframes by clicking landmarks at their true pixel positions', async () => {
+    const { page } = app;
+    const landmarks = pitchModel({ length: 105, width: 68 }).landmarks;
+    // Tall enough that the picture and the registration panel are both in view (no scrolling between choosing and clicking).
+    await page.setViewportSize({ width: 1440, height: 1300 });
+    for (const [k, F] of KEYFRAMES.entries()) {
+      await goToFrame(page, F);
+      await page.keyboard.press('r');
+      const panel = page.getByRole('region', { name: 'Pitch registration' });
+      await panel.getByRole('button', { name: 'Clear points' }).click();
+      const box = (await page.locator('.watch-stage').boundingBox())!;
+      const scale = box.width / truthH.width;
+      const h = truthH.frames[F];
+      // In front of the camera (w > 0), inside the picture and below the stands and score graphic.
+      const inFront = (x: number, y: number) => h[6] * x + h[7] * y + h[8] > 0;
+      const seen = landmarks
+        .filter((l) => inFront(l.at[0], l.at[1]))
+        .map((l) => ({ l, p: project(h, l.at[0], l.at[1]) }))
+        .filter(({ p }) => p[0] > 8 && p[1] > 40 && p[0] < truthH.width - 8 && p[1] < truthH.height - 8);
+      expect(seen.length, `landmarks in view on frame ${F}`).toBeGreaterThanOrEqual(4);
+      for (const { l, p } of seen.slice(0, 8)) {
+        await panel.getByLabel('Landmark to place').selectOption(l.id);
+        // Choosing in the side panel may scroll the screen: measure the picture again.
+        const b = (await page.locator('.watch-stage').boundingBox())!;
+        await page.mouse.click(b.x + p[0] * scale, b.y + p[1] * scale);
+      }
+      await shot(page, `watch-02-registering-${k + 1}`);
+      await expect.poll(() => panel.getByTestId('fit-summary').innerText()).toMatch(/^Fit: RMS/);
+      const errors = (await panel.getByTestId('pair-error').allInnerTexts()).map(Number);
+      console.log(`keyframe ${F}: ${seen.slice(0, 8).map((x) => x.l.id).join(', ')}; reprojection errors ${errors.map((e) => e.toFixed(2)).join(' ')} px`);
+      // Clicks land on whole CSS pixels (${(1 / scale).toFixed(2)} footage px each): a fit through them stays within about a pixel.
+      expect(Math.max(...errors)).toBeLessThan(2);
+      await shot(page, `watch-02-registering-${k + 1}`);
+      await panel.getByRole('button', { name: /Save keyframe/ }).click();
+      await expect.poll(() => page.getByRole('table', { name: 'Keyframes' }).locator('tbody tr').filter({ hasText: String(F) }).count()).toBe(1);
+    }
+    // Undoable: Ctrl+Z takes the second keyframe away, Ctrl+Shift+Z brings it back.
+    const rows = page.getByRole('table', { name: 'Keyframes' }).locator('tbody tr');
+    await page.locator('.watch-stage').hover();
+    await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => rows.count()).toBe(1);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => rows.count()).toBe(2);
+  });
+
   it('draws the dots on the rendered players (truth positions through the truth homography)', async () => {
     const { page } = app;
-    const F = KEYFRAMES[0];
+    // Between the two keyframes: the homography is interpolated there.
+    const F = KEYFRAMES[0] + 12;
     await goToFrame(page, F);
     await toggleLayer(page, 't', 'Trails', false);
     await toggleLayer(page, 'b', 'Ball', false);
@@ -304,7 +332,7 @@ describe.runIf(usingDemo)('Watch screen on the demo match', () => {
     const homeOnly = await stagePixels(page, 'watch-06-home-dots-only');
     const changed = diffMask(both.rgba, homeOnly.rgba);
     const scale = both.w / truthH.width;
-    const players = truthPlayersOnFrame(KEYFRAMES[0]).filter((p) => p.u > 10 && p.v > 10 && p.u < truthH.width - 10 && p.v < truthH.height - 10);
+    const players = truthPlayersOnFrame(KEYFRAMES[0] + 12).filter((p) => p.u > 10 && p.v > 10 && p.u < truthH.width - 10 && p.v < truthH.height - 10);
     const near = (team: 'home' | 'away') => players.filter((p) => p.team === team && players.every((q) => q === p || Math.hypot(q.u - p.u, q.v - p.v) * scale > 40)).map((p) => centroidNear(changed, both.w, both.h, p.u * scale, p.v * scale, 14).n);
     // Away markers went, home markers stayed.
     expect(Math.min(...near('away'))).toBeGreaterThan(30);

@@ -2,8 +2,11 @@
  * Geometry derived from a scene's positions, computed once per scene by the geometry
  * engine (engine/geometry/) and shared by the layers that draw it.
  *
- *   derivedOf(scene).home.offsideX   // x (m) of the offside line home attackers face... see below
+ *   derivedOf(scene).away.offsideX   // x (m) of the offside line of the away defence (Law 11)
  */
+import { backLine, offsideLine, teamLines, type PlayerSpot } from '../../../engine/geometry/lines.ts';
+import { teamShape } from '../../../engine/geometry/shape.ts';
+import { pitchSpace } from '../../../engine/geometry/space.ts';
 import type { OverlayScene, ScenePlayer, TeamKey } from './contract.ts';
 
 export interface Pt {
@@ -43,7 +46,26 @@ export function derivedOf(scene: OverlayScene): SceneGeometry {
   return d;
 }
 
-function compute(_scene: OverlayScene): SceneGeometry {
-  const empty = (): TeamGeometry => ({ lines: [], hull: [] });
-  return { home: empty(), away: empty(), cells: [] };
+function compute(scene: OverlayScene): SceneGeometry {
+  const spots: PlayerSpot[] = scene.players.map((p) => ({ id: p.id, team: p.team, x: p.x, y: p.y, keeper: p.goalkeeper }));
+  const byId = new Map(scene.players.map((p) => [p.id, p]));
+  const ball = scene.ball ? { x: scene.ball.x, y: scene.ball.y } : null;
+  const team = (t: TeamKey): TeamGeometry => {
+    const off = offsideLine(spots, ball, t, scene.homeAttacks);
+    const back = backLine(spots, t, scene.homeAttacks);
+    const lines = teamLines(spots, t, scene.homeAttacks, scene.teamLineCount ?? 3).map((l) => l.playerIds.flatMap((id) => byId.get(id) ?? []));
+    const shape = teamShape(spots, t);
+    const hull = (shape?.hull ?? []).map(([x, y]) => ({ x, y }));
+    const xs = hull.map((p) => p.x);
+    const ys = hull.map((p) => p.y);
+    return {
+      ...(off ? { offsideX: off.x } : {}),
+      ...(back ? { backX: back.x } : {}),
+      lines,
+      hull,
+      ...(shape && hull.length ? { extent: { minX: Math.min(...xs), maxX: Math.max(...xs), minY: Math.min(...ys), maxY: Math.max(...ys), length: shape.length, width: shape.width } } : {}),
+    };
+  };
+  const cells = scene.layers.space.home || scene.layers.space.away ? pitchSpace(spots, scene.pitch).cells.map((c) => ({ id: c.id, team: c.team as TeamKey, polygon: c.polygon.map(([x, y]) => ({ x, y })) })) : [];
+  return { home: team('home'), away: team('away'), cells };
 }

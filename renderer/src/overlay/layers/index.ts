@@ -13,7 +13,7 @@ import { trailsLayer } from './trails.ts';
 
 /** Layers whose geometry the engine computes (overlay/derived.ts): listed once it is wired in. */
 export const GEOMETRY_LAYERS: OverlayLayer[] = [spaceLayer, hullLayer, teamLinesLayer, backLineLayer, offsideLayer, extentLayer];
-const GEOMETRY_WIRED = false;
+const GEOMETRY_WIRED = true;
 
 export const LAYERS: OverlayLayer[] = [trailsLayer, dotsLayer, ballLayer, distanceLayer, ...(GEOMETRY_WIRED ? GEOMETRY_LAYERS : [])].sort((a, b) => a.order - b.order);
 
