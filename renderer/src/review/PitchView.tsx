@@ -115,7 +115,7 @@ export function PitchView({ pitch, dots, logged, proposed, caption, onPlace }: P
           >
             <rect x={shown.x - 1.6} y={-shown.y - 1.6} width={3.2} height={3.2} />
             <circle cx={shown.x} cy={-shown.y} r={4} className="pv-grab" />
-            <text x={shown.x} y={-shown.y + 5.2}>{drag ? `${shown.x.toFixed(1)}, ${shown.y.toFixed(1)}` : 'proposed'}</text>
+            <text x={shown.x} y={-shown.y + 5.2 > W / 2 + m - 0.5 ? -shown.y - 4.5 : -shown.y + 5.2}>{drag ? `${shown.x.toFixed(1)}, ${shown.y.toFixed(1)}` : 'proposed'}</text>
           </g>
         )}
       </svg>
