@@ -170,6 +170,8 @@ export interface Anchor {
   note?: string;
   /** For event anchors: the event id it came from. */
   eventId?: string;
+  /** Tracking restart anchors: tracking time the ball came to rest at the spot (before t, the kick). */
+  stillFromT?: Seconds;
 }
 
 /** One anchor pairing used in a fit: source time t maps to reference (tracking) time tRef. */

@@ -38,9 +38,11 @@ export async function analyse(
   return {
     ...sources,
     rate: tracking.rate,
-    trackingAnchors: result.trackingAnchors.map(({ id, source, kind, period, t, x, y, confidence, note, eventId }) => ({
+    // stillFromT (the ball at rest) is kept: the footage sync pairs a free kick's whistle with it.
+    trackingAnchors: result.trackingAnchors.map(({ id, source, kind, period, t, x, y, confidence, note, eventId, stillFromT }) => ({
       id, source, kind, period, t, confidence,
       ...(x !== undefined ? { x } : {}), ...(y !== undefined ? { y } : {}), ...(note ? { note } : {}), ...(eventId ? { eventId } : {}),
+      ...(stillFromT !== undefined ? { stillFromT } : {}),
     })),
     eventAnchors: result.eventAnchors,
     fit: result.fit,
