@@ -6,6 +6,15 @@
  * Goal (issue 7): <= 4 ms p95 per frame.
  *
  * Run: npx tsx bench/overlay.bench.ts
+ *
+ * Measured 2026-12-02 on this 2-core machine, shared and loaded, SwiftShader (no GPU):
+ * with dots, ball and trails only (before the geometry layers): pixi WebGL median 11.3 ms,
+ * p95 19.6 ms; Canvas 2D reference 1.1 / 5.6 ms; playback 245 of 251 frames.
+ * With every layer (offside/back/team lines, shape, length & width, Voronoi space added):
+ * pixi WebGL median 442 ms, p95 744 ms (!); pixi canvas renderer 13.8 / 42 ms; Canvas 2D
+ * reference 1.3 / 8.3 ms; playback 26 of 257 frames. The goal (p95 <= 4 ms) is not met; the
+ * WebGL figure with all layers points at per-frame geometry rebuilding (many dashed
+ * sub-paths and filled polygons triangulated on the CPU) and is the first thing to profile.
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
