@@ -226,6 +226,11 @@ describe('Sync on the demo match with detected whistles', () => {
         errs.map((x) => `${x.what}: ${(x.e * 1000).toFixed(1)} ms`).join('\n  '),
     );
     for (const x of errs) expect(Math.abs(x.e), x.what).toBeLessThanOrEqual(1 / FPS);
+    // The stored tracking anchors carry the ball's moment of rest, so free-kick whistles are
+    // paired with it (engine/footage-sync/lag-model.ts), not with the kick's vaguer fallback.
+    const lags = (s.fits[0] as ClockFit & { model?: { lags: { kind: string; ref: string; lagS: number; sdS: number; n: number }[] } }).model?.lags ?? [];
+    console.log(`whistle lags: ${lags.map((l) => `${l.kind} (${l.ref}) ${l.lagS.toFixed(2)} ± ${l.sdS.toFixed(2)} s, n ${l.n}`).join('; ')}`);
+    expect(lags.find((l) => l.kind === 'free_kick')?.ref).toBe('still');
     await shot(page, 'sync-detected-fitted');
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);
