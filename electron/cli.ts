@@ -15,6 +15,7 @@ const commandModules: Record<string, string> = {
   sync: './cli/sync.ts',
   whistles: './cli/whistles.ts',
   cuts: './cli/cuts.ts',
+  export: './cli/export.ts',
 };
 const commands: Record<string, () => Promise<{ command: CliCommand }>> = Object.fromEntries(
   Object.entries(commandModules).map(([name, rel]) => [name, () => import(new URL(rel, import.meta.url).href)]),

@@ -16,6 +16,13 @@ async function boot() {
     const db = getDb();
     await db.open();
     const services = { host, info, db };
+    // The page `whistlemark export` drives headless: functions only, no screens.
+    if (location.hash === '#cli-export') {
+      const { installCliExport } = await import('./export-clips/cli-page.ts');
+      installCliExport(db, host);
+      root.render(<p>Whistlemark export (command line)</p>);
+      return;
+    }
     // A page of its own for checking a footage file frame by frame (tests, benchmarks).
     if (isFootageCheck(location.hash)) {
       root.render(
