@@ -66,7 +66,7 @@ function stats(ms: number[]) {
 }
 
 /** Overlay draw time per frame (update + render + 1-pixel readback so the GPU work is counted). */
-export async function pixiDraw(frames: number, prefer: 'webgl' | 'canvas' = 'webgl'): Promise<{ median: number; p95: number; n: number; backend: string }> {
+export async function pixiDraw(frames: number, prefer: 'webgl' | 'canvas' | 'auto' = 'webgl'): Promise<{ median: number; p95: number; n: number; backend: string }> {
   const sc = scenes(frames);
   const canvas = document.createElement('canvas');
   document.body.appendChild(canvas);

@@ -128,8 +128,11 @@ export interface OverlayRendererOptions {
   preserveDrawingBuffer?: boolean;
   /** Default 1: device pixels per output pixel. */
   resolution?: number;
-  /** Force pixi's canvas renderer (measured in bench/overlay.bench.ts); default WebGL first. */
-  prefer?: 'webgl' | 'canvas';
+  /**
+   * Which pixi renderer (measured in bench/overlay.bench.ts). Default 'auto': WebGL with a
+   * GPU, the canvas renderer when WebGL is a software rasteriser (much faster there).
+   */
+  prefer?: 'webgl' | 'canvas' | 'auto';
 }
 
 export interface OverlayRenderer {

@@ -15,8 +15,16 @@ import { LabelPool } from './labels.ts';
 import { LAYERS } from './layers/index.ts';
 import { strokePitchPath } from './layers/layer.ts';
 import { viewProjector } from './project.ts';
+import { webglIsSoftware } from './software-webgl.ts';
 
 const TEAMS: TeamKey[] = ['home', 'away'];
+
+/** 'auto' (no preference): the canvas renderer when WebGL is only a software rasteriser. */
+function preferCanvas(prefer: 'webgl' | 'canvas' | 'auto' | undefined): boolean {
+  if (prefer === 'canvas') return true;
+  if (prefer === 'webgl') return false;
+  return webglIsSoftware();
+}
 
 interface LayerSlot {
   id: LayerId;
@@ -26,7 +34,7 @@ interface LayerSlot {
 
 export const createOverlayRenderer: CreateOverlayRenderer = async (options) => {
   const renderer: Renderer = await autoDetectRenderer({
-    preference: (options.prefer === 'canvas' ? ['canvas'] : ['webgl', 'canvas']) as unknown as 'webgl',
+    preference: (preferCanvas(options.prefer) ? ['canvas'] : ['webgl', 'canvas']) as unknown as 'webgl',
     width: options.width,
     height: options.height,
     backgroundAlpha: 0,
