@@ -67,6 +67,9 @@ async function openChooser(page: Page) {
 
 async function saveThroughDialog(page: Page, label: RegExp, fileName: string, replace = false) {
   const dlg = page.getByRole('dialog', { name: label });
+  // Type only once the export is built: on a loaded machine the dialog may still be
+  // preparing (and re-rendering) when it first shows.
+  await dlg.getByText('Preparing…').waitFor({ state: 'hidden', timeout: 60_000 });
   await dlg.getByLabel('File name').fill(fileName);
   await dlg.getByLabel('Folder').fill(out);
   await dlg.getByRole('button', { name: 'Save', exact: true }).click();
