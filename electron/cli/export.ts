@@ -190,7 +190,10 @@ async function exportReel(opts: ExportArgs): Promise<number> {
       const n = Math.min(clips.length, Math.max(1, mp4s.indexOf(doing) + 1));
       say(`clip ${n}/${clips.length}  ${(f * 100).toFixed(0).padStart(3)} %  ${left == null ? 'estimating time left' : `${clock(left)} left`}  ${doing}`);
     });
-    if (cancelled) await cancelPage();
+    if (cancelled) {
+      say('cancelled before the export started; nothing was written.');
+      return 130;
+    }
     const result = await page.evaluate(([id, reel, dir, replace]) => ((window as any).whistlemarkCli as Api).run(id, reel, dir, replace), [opened.projectId, plan.reelId!, outDir, opts.replace] as const);
     if (result.state === 'cancelled' || cancelled) {
       say(`cancelled. Finished files kept in ${outDir}: ${result.outputs.length ? result.outputs.join(', ') : 'none'}.`);

@@ -7,7 +7,7 @@
  * The MP4 is checked with Debian's ffprobe; the captions with webvtt-parser (npm registry).
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -19,6 +19,7 @@ const require = createRequire(import.meta.url);
 const { WebVTTParser } = require('webvtt-parser') as { WebVTTParser: new () => { parse(s: string, mode?: string): { errors: unknown[] } } };
 const ROOT = resolve(new URL('../..', import.meta.url).pathname);
 const DEMO = join(ROOT, 'fixtures/demo/');
+const SHOTS = join(ROOT, 'test-results');
 const scratch = mkdtempSync(join(tmpdir(), 'wm-cli-export-'));
 const corner = truth.restarts.find((r) => r.kind === 'corner')!;
 const cornerTrk = trueToTracking(corner.period, corner.playedT);
@@ -37,7 +38,7 @@ async function project(name: string, clips: { from: number; to: number; title: s
   t.clockFits.push({ id: maxId(t.clockFits) + 1, projectId, sourceId: footage.id, fit: truthFootageFit(), createdAt: 2 });
   t.pitchRegistrations.push({ id: maxId(t.pitchRegistrations) + 1, projectId, footageSourceId: footage.id, data: truthRegistration(0, truth.footage.frameCount - 1), updatedAt: 2 });
   t.reels.push({ id: 1, projectId, title: 'Corners against', createdAt: 3 });
-  clips.forEach((c, i) => t.clips.push({ id: i + 1, projectId, reelId: 1, order: i, period: corner.period, from: c.from, to: c.to, title: c.title, layers: ['positions'] }));
+  clips.forEach((c, i) => t.clips.push({ id: i + 1, projectId, reelId: 1, order: i, period: corner.period, from: c.from, to: c.to, title: c.title, layers: ['dots', 'ball', 'offside'] }));
   const refs: FootageReference[] = manifest.footage.map((f) => (footagePath ? { ...f, path: footagePath } : f));
   const path = join(scratch, name);
   writeFileSync(path, await writeProjectFile(t, { writtenBy: 'cli-export test', databaseVersion: manifest.databaseVersion, footage: refs }));
@@ -73,6 +74,11 @@ describe('whistlemark export', () => {
     expect(new WebVTTParser().parse(readFileSync(mp4.replace(/\.mp4$/, '.vtt'), 'utf8'), 'metadata').errors).toEqual([]);
     expect(readFileSync(join(out, 'corners-against.csv'), 'utf8').split('\n').length).toBeGreaterThan(1);
 
+    // A frame from the middle, to look at (Debian ffmpeg), and the progress as printed.
+    mkdirSync(SHOTS, { recursive: true });
+    writeFileSync(join(SHOTS, 'cli-export-stderr.txt'), r.stderr);
+    spawnSync('ffmpeg', ['-v', 'error', '-y', '-ss', '2', '-i', mp4, '-frames:v', '1', join(SHOTS, 'cli-export-frame.png')]);
+    expect(existsSync(join(SHOTS, 'cli-export-frame.png'))).toBe(true);
     const before = readFileSync(mp4);
     const again = cli(['export', '--project', file, '--reel', 'corners against', '--out', out]);
     expect(again.status).toBe(1);

@@ -31,7 +31,9 @@ export interface CliExportApi {
 }
 
 export function installCliExport(db: WhistlemarkDb, host: HostApi): void {
-  let abort = new AbortController();
+  // One export per page (the command line opens a fresh one each run), so a cancel that
+  // arrives before run() starts still counts.
+  const abort = new AbortController();
   const api: CliExportApi = {
     async open(path) {
       const [file] = await host.openPaths([path]);
@@ -56,7 +58,6 @@ export function installCliExport(db: WhistlemarkDb, host: HostApi): void {
       return { reelId: reel.id!, clips: plans.map((p) => ({ title: p.title, durationS: p.durationS })), files };
     },
     async run(projectId, reelId, directory, overwrite) {
-      abort = new AbortController();
       const signal = abort.signal;
       const jobId = await queueExport(db, { projectId, reelId, clipIds: [], directory, overwrite });
       const report = (window as unknown as { wmCliProgress?: (f: number, left: number | null, doing: string) => void }).wmCliProgress;
