@@ -6,6 +6,7 @@
 import type { CliCommand } from '../cli.ts';
 import type { WhistleCandidate } from '../../engine/audio/index.ts';
 import type { DecodeEngine } from '../host/audio/decode.ts';
+import { clock, parseFootageArgs, printRows, runCancellable } from './footage-command.ts';
 import { SCAN_SAMPLE_RATE as SAMPLE_RATE, scanFootageWhistles } from '../host/audio/scan-footage.ts';
 
 const usage = `usage: whistlemark whistles FOOTAGE [--native | --embedded] [--json]
@@ -21,52 +22,18 @@ export const command: CliCommand = {
   summary: 'list referee-whistle candidates in a footage file\'s sound',
   usage,
   async run(args) {
-    const unknown = args.filter((a) => a.startsWith('--') && !['--native', '--embedded', '--json'].includes(a));
-    const files = args.filter((a) => !a.startsWith('--'));
-    if (unknown.length || files.length !== 1 || (args.includes('--native') && args.includes('--embedded'))) {
-      if (unknown.length) console.error(`whistlemark whistles: unknown option ${unknown[0]}.`);
-      console.error(usage);
-      return 2;
-    }
-    const file = files[0];
-    const engine: DecodeEngine | 'auto' = args.includes('--native') ? 'native' : args.includes('--embedded') ? 'embedded' : 'auto';
-    const json = args.includes('--json');
-
-    const ctl = new AbortController();
-    const onSigint = () => ctl.abort(Object.assign(new Error('cancelled (Ctrl-C)'), { name: 'AbortError' }));
-    process.once('SIGINT', onSigint);
-    const started = performance.now();
-    let lastReport = started;
-    try {
-      const result = await scanFootageWhistles(file, {
-        engine,
-        signal: ctl.signal,
-        onProgress: (s, n) => {
-          const now = performance.now();
-          if (process.stderr.isTTY && now - lastReport > 1000) {
-            lastReport = now;
-            process.stderr.write(`\rscanned ${clock(s)} of sound, ${n} candidates so far`);
-          }
-        },
-      });
+    const parsed = parseFootageArgs('whistles', args, usage);
+    if (typeof parsed === 'number') return parsed;
+    const { file, engine, json } = parsed;
+    return runCancellable('whistles', async ({ signal, tell, elapsedS }) => {
+      const result = await scanFootageWhistles(file, { engine, signal, onProgress: (s, n) => tell(`scanned ${clock(s)} of sound, ${n} candidates so far`) });
       const found = result.candidates;
-      if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
-      const wallS = (performance.now() - started) / 1000;
-      if (json) {
-        console.log(JSON.stringify({ file, engine: result.engine, sampleRate: SAMPLE_RATE, seconds: result.seconds, candidates: found }, null, 2));
-      } else {
-        printTable(file, result.engine, result.seconds, wallS, found);
-      }
-      return 0;
-    } catch (err) {
-      if (ctl.signal.aborted) {
-        console.error('\nwhistlemark whistles: cancelled.');
-        return 130;
-      }
-      throw err;
-    } finally {
-      process.off('SIGINT', onSigint);
-    }
+      const wallS = elapsedS();
+      return () =>
+        json
+          ? console.log(JSON.stringify({ file, engine: result.engine, sampleRate: SAMPLE_RATE, seconds: result.seconds, candidates: found }, null, 2))
+          : printTable(file, result.engine, result.seconds, wallS, found);
+    });
   },
 };
 
@@ -86,16 +53,5 @@ function printTable(file: string, engine: DecodeEngine, seconds: number, wallS: 
       `${Math.round(c.fundamentalHz)} Hz`,
     ]),
   );
-  const widths = rows[0].map((_, k) => Math.max(...rows.map((r) => r[k].length)));
-  for (const r of rows) console.log('  ' + r.map((v, k) => (k === 0 ? v.padStart(widths[k]) : v.padEnd(widths[k]))).join('  ').trimEnd());
-}
-
-/** Footage seconds as H:MM:SS.mmm (M:SS.mmm under an hour). */
-function clock(s: number): string {
-  const ms = Math.round(s * 1000);
-  const h = Math.floor(ms / 3_600_000);
-  const m = Math.floor(ms / 60_000) % 60;
-  const sec = (ms % 60_000) / 1000;
-  const tail = `${String(m).padStart(h ? 2 : 1, '0')}:${sec.toFixed(3).padStart(6, '0')}`;
-  return h ? `${h}:${tail}` : tail;
+  printRows(rows);
 }
