@@ -13,8 +13,9 @@
  *
  * Run: npx tsx bench/seek.bench.ts   (builds dist/renderer first when it is missing)
  */
+import { rendererBuildState } from '../scripts/renderer-freshness.mjs';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { build } from 'vite';
@@ -83,7 +84,7 @@ async function main() {
     console.log(`making a ${SECONDS} s 1280x720 ${FPS} fps H.264 clip with Debian ffmpeg ...`);
     execFileSync('ffmpeg', ['-hide_banner', '-v', 'error', '-y', '-f', 'lavfi', '-i', `testsrc2=size=1280x720:rate=${FPS}:duration=${SECONDS}`, '-c:v', 'libx264', '-preset', 'veryfast', '-crf', '26', '-g', String(2 * FPS), '-bf', '2', '-pix_fmt', 'yuv420p', '-movflags', '+faststart', clip]);
     const rendererDir = join(ROOT, 'dist/renderer');
-    if (!existsSync(join(rendererDir, 'index.html'))) {
+    if (rendererBuildState(ROOT) !== 'fresh') {
       console.log('building the renderer (dist/renderer) ...');
       await build({ configFile: join(ROOT, 'build/vite.config.ts'), logLevel: 'warn' });
     }

@@ -2,43 +2,23 @@
 // in Electron when its binary is installed, otherwise in the system browser through the
 // loopback host (electron/serve.ts). Says which mode it chose and why.
 import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildElectronBundle, findElectronBinary } from './electron-binary.mjs';
+import { rendererBuildState } from './renderer-freshness.mjs';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const rendererOut = join(root, 'dist', 'renderer', 'index.html');
 const say = (line) => console.log(`[start] ${line}`);
 
-/** Newest modification time of any file under the given folders (skipping node_modules). */
-function newestMtime(paths) {
-  let newest = 0;
-  const walk = (p) => {
-    let info;
-    try {
-      info = statSync(p);
-    } catch {
-      return;
-    }
-    if (info.isDirectory()) {
-      for (const name of readdirSync(p)) if (name !== 'node_modules' && !name.startsWith('.')) walk(join(p, name));
-    } else newest = Math.max(newest, info.mtimeMs);
-  };
-  paths.forEach(walk);
-  return newest;
-}
-
 function buildRendererIfStale() {
-  // The renderer bundles its own code plus shared-types/ and engine/.
-  const sources = ['renderer', 'shared-types', 'engine', 'build/vite.config.ts'].map((p) => join(root, p));
-  const built = existsSync(rendererOut) ? statSync(rendererOut).mtimeMs : 0;
-  const newest = newestMtime(sources);
-  if (built && built >= newest) {
+  const state = rendererBuildState(root);
+  if (state === 'fresh') {
     say('renderer is up to date (dist/renderer).');
     return;
   }
-  say(built ? 'renderer sources changed since the last build: building with vite…' : 'dist/renderer is missing: building with vite…');
+  say(state === 'stale' ? 'renderer sources changed since the last build: building with vite…' : 'dist/renderer is missing: building with vite…');
   const r = spawnSync('npx', ['vite', 'build', '--config', 'build/vite.config.ts'], { cwd: root, stdio: 'inherit' });
   if (r.status !== 0) {
     console.error('[start] The renderer build failed (see above). Fix the error and run npm start again.');

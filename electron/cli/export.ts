@@ -7,12 +7,13 @@
  * Ctrl+C cancels: the clip being encoded is never written (the host saves atomically).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { CliCommand } from '../cli.ts';
+import { rendererBuildState } from '../../scripts/renderer-freshness.mjs';
 
 const usage = `usage: whistlemark export --project FILE.wmatch --reel NAME --out DIR [--replace]
 
@@ -51,30 +52,11 @@ function parseArgs(args: string[]): ExportArgs {
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 
-/** Newest modification time under the given paths (node_modules and dot folders skipped). */
-function newestMtime(paths: string[]): number {
-  let newest = 0;
-  const walk = (p: string) => {
-    let info;
-    try {
-      info = statSync(p);
-    } catch {
-      return;
-    }
-    if (info.isDirectory()) {
-      for (const name of readdirSync(p)) if (name !== 'node_modules' && !name.startsWith('.')) walk(join(p, name));
-    } else newest = Math.max(newest, info.mtimeMs);
-  };
-  paths.forEach(walk);
-  return newest;
-}
-
-/** Same rule as scripts/start.mjs: rebuild when index.html is missing or older than any source. */
+/** Same rule as `npm start` (scripts/renderer-freshness.mjs): rebuild when missing or older than any source. */
 function buildRendererIfStale(say: (line: string) => void): void {
-  const index = join(root, 'dist', 'renderer', 'index.html');
-  const built = existsSync(index) ? statSync(index).mtimeMs : 0;
-  if (built && built >= newestMtime(['renderer', 'shared-types', 'engine', 'build/vite.config.ts'].map((p) => join(root, p)))) return;
-  say(built ? 'renderer sources changed since the last build: building with vite…' : 'dist/renderer is missing: building with vite…');
+  const state = rendererBuildState(root);
+  if (state === 'fresh') return;
+  say(state === 'stale' ? 'renderer sources changed since the last build: building with vite…' : 'dist/renderer is missing: building with vite…');
   const r = spawnSync('npx', ['vite', 'build', '--config', 'build/vite.config.ts', '--logLevel', 'warn'], { cwd: root, stdio: ['ignore', 2, 2] });
   if (r.status !== 0) throw new UserError('the renderer build failed (see above); fix the error and run the export again.');
 }

@@ -1,0 +1,1 @@
+export function rendererBuildState(root: string): 'fresh' | 'stale' | 'missing';
