@@ -37,7 +37,7 @@ import { launchLocalChromium } from '../build/local-chromium.ts';
 import { probeFootageFile } from '../electron/host/footage/probe.ts';
 import { exportClipNative } from '../electron/host/export/native-export.ts';
 import { LAYER_IDS } from '../renderer/src/overlay/contract.ts';
-import { truth, truthEventFit, truthFootageFit, truthRegistration, trueToFootage } from '../tests/host/export-truth.ts';
+import { truth, truthEventFit, truthFootageFit, truthRegistration, trueToFootage } from '../tests/demo-truth-rows.ts';
 
 const ROOT = new URL('../', import.meta.url).pathname;
 const DEMO = join(ROOT, 'fixtures/demo');

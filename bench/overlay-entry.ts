@@ -3,21 +3,13 @@
  * the same shapes drawn with Canvas 2D as the reference, and the demo footage played with
  * the overlay drawn on each presented frame.
  */
+import { seededRandom } from '../engine/geometry/prng.ts';
 import type { OverlayScene, ScenePlayer, SceneTrail } from '../renderer/src/overlay/contract.ts';
 import { createOverlayRenderer } from '../renderer/src/overlay/renderer.ts';
 import { allLayers, DEFAULT_TEAMS } from '../renderer/src/overlay/style.ts';
 
-/** sfc32-like tiny PRNG so every run draws the same scenes. */
-function prng(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The engine's seeded PRNG (mulberry32), so every run draws the same scenes. */
+const prng = seededRandom;
 
 /** A broadcast-like homography for 1920x1080 footage (camera on the halfway line, looking down). */
 const H = [12.6383 * 3, 4.60975 * 3, 960, 0, -1.04973 * 3, 164.701 * 3, 0, 0.0144055, 1];

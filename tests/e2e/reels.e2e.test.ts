@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SHOTS, shot, startApp, type RunningApp } from './harness.ts';
-import { truth, truthEventFit, truthFootageFit, truthRegistration } from '../host/export-truth.ts';
+import { truth, truthEventFit, truthFootageFit, truthRegistration } from '../demo-truth-rows.ts';
 
 const require = createRequire(import.meta.url);
 const { WebVTTParser } = require('webvtt-parser') as { WebVTTParser: new () => { parse(s: string, mode?: string): { cues: { startTime: number; endTime: number; text: string }[]; errors: unknown[] } } };

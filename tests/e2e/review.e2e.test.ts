@@ -3,35 +3,13 @@
  * (analysis worker on the stored sources) fills the queue; accept, reject and edit by keys,
  * undo, reload; then the whole review finished from the keyboard, keystrokes counted.
  */
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { trackingToFootage } from '../../engine/fit/footage-map.ts';
-import type { Truth } from '../../fixtures/sim/index.ts';
-import type { ClockFit } from '../../shared-types/index.ts';
-import { DEMO_DIR, ROOT, shot, startApp, type RunningApp } from './harness.ts';
+import { truthFootageFit } from '../demo-truth-rows.ts';
+import { DEMO_DIR, shot, startApp, type RunningApp } from './harness.ts';
 
 const usingDemo = DEMO_DIR.endsWith('fixtures/demo');
-
-/**
- * A footage clock fit made from the demo truth (fixtures/demo/truth.json), standing in for
- * the one the Sync screen makes: per live footage segment, tracking = (true - tracking
- * offset) / tracking rate, true = footage offset + rate * footage time.
- */
-function footageFitFromTruth(): ClockFit {
-  const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
-  const trk = truth.clocks.tracking!.segments;
-  const segments = truth.clocks.footage!.segments
-    .filter((s) => s.kind !== 'replay')
-    .map((s) => {
-      const ts = trk.find((q) => q.period === s.period)!;
-      const offset = (s.offset - ts.offset) / ts.rate;
-      const rate = s.rate / ts.rate;
-      return { period: s.period, fromT: s.fromT, toT: s.toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe: 0, rateSe: 0, rmsResidual: 0, leaveOneOutMax: 0, points: [] };
-    });
-  return { source: 'footage', method: 'huber', segments };
-}
 
 let app: RunningApp;
 beforeAll(async () => {
@@ -176,7 +154,7 @@ describe('Review on the demo match', () => {
 
   it.runIf(usingDemo)('cues the footage at the moment under review when a footage fit exists', async () => {
     const { page } = app;
-    const fit = footageFitFromTruth();
+    const fit = truthFootageFit(); // the fit the Sync screen would make, from truth (tests/demo-truth-rows.ts)
     await page.evaluate(async (fit) => {
       const db: IDBDatabase = await new Promise((res, rej) => {
         const r = indexedDB.open('whistlemark');

@@ -14,6 +14,7 @@ import { pitchModel } from '../../engine/geometry/pitch-model.ts';
 import { sampleAt, simulateMatch, type Truth } from '../../fixtures/sim/index.ts';
 import { deltaE76, simulate, type Rgb } from '../unit/overlay/colour-vision.ts';
 import { DEMO_DIR, ROOT, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
+import { truthFootageFit } from '../demo-truth-rows.ts';
 
 const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
 const truthH = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth-homography.json'), 'utf8')) as { frames: number[][]; width: number; height: number };
@@ -24,27 +25,12 @@ function project(h: number[], x: number, y: number): [number, number] {
   return [(h[0] * x + h[1] * y + h[2]) / w, (h[3] * x + h[4] * y + h[5]) / w];
 }
 
-/**
- * The footage clock fit the e2e needs, written from truth in the test set-up because the
- * Sync screen (which makes it in the app) is another module: per live footage segment,
- * tracking time = (true - tracking offset) / tracking rate with true = footage offset + rate * t.
- */
-function fitFromTruth() {
-  const trk = truth.clocks.tracking!.segments;
-  const segments = truth.clocks.footage!.segments
-    .filter((s) => s.kind !== 'replay')
-    .map((s) => {
-      const ts = trk.find((q) => q.period === s.period)!;
-      const offset = (s.offset - ts.offset) / ts.rate;
-      const rate = s.rate / ts.rate;
-      return { period: s.period, fromT: s.fromT, toT: s.toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe: 0, rateSe: 0, rmsResidual: 0, leaveOneOutMax: 0, points: [] };
-    });
-  return { source: 'footage', method: 'huber', segments };
-}
+// The footage clock fit comes from truth (tests/demo-truth-rows.ts), standing in for the
+// one the Sync screen makes (covered by tests/e2e/sync.e2e.test.ts).
 
 /** Writes the fit row and the confirmed non-live rows straight into the app's IndexedDB. */
 async function writeFitAndNonLive(page: Page) {
-  const fit = fitFromTruth();
+  const fit = truthFootageFit();
   const nonLive = truth.nonLive!;
   await page.evaluate(
     async ({ fit, nonLive }) => {

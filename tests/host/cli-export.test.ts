@@ -3,7 +3,7 @@
  * `whistlemark sync` on the demo writes it (tracking, events, footage with its
  * fingerprint), then engine/project-file's reader and writer add what the Sync and Reels
  * screens would: the footage clock fit and pitch registration from the demo truth
- * (tests/host/export-truth.ts) and a reel with one clip around the demo's corner.
+ * (tests/demo-truth-rows.ts) and a reel with one clip around the demo's corner.
  * The MP4 is checked with Debian's ffprobe; the captions with webvtt-parser (npm registry).
  */
 import { spawn, spawnSync } from 'node:child_process';
@@ -13,7 +13,7 @@ import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
 import { readProjectFile, writeProjectFile, type FootageReference, type ProjectTables } from '../../engine/project-file/index.ts';
-import { trueToTracking, truth, truthFootageFit, truthRegistration } from './export-truth.ts';
+import { trueToTracking, truth, truthFootageFit, truthRegistration } from '../demo-truth-rows.ts';
 
 const require = createRequire(import.meta.url);
 const { WebVTTParser } = require('webvtt-parser') as { WebVTTParser: new () => { parse(s: string, mode?: string): { errors: unknown[] } } };

@@ -18,7 +18,7 @@ import { probeFootageFile } from '../../electron/host/footage/probe.ts';
 import { footageToTracking } from '../../engine/fit/footage-map.ts';
 import { planClip, type ClipPlan } from '../../renderer/src/export-clips/plan.ts';
 import { openExportPage, PAGE_B64, type ExportPage } from './export-page.ts';
-import { homographies, project, truth, truthEventFit, truthFootageFit, truthRegistration, trueToTracking } from './export-truth.ts';
+import { homographies, project, truth, truthEventFit, truthFootageFit, truthRegistration, trueToTracking } from '../demo-truth-rows.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 const REF = join(ROOT, 'fixtures/reference/cfr25.mp4');

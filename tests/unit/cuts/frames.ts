@@ -1,18 +1,10 @@
 /** Synthetic 64×36 luma shots for the cut detector tests (seeded, so every run is the same). */
+import { seededRandom } from '../../../engine/geometry/prng.ts';
 export const W = 64;
 export const H = 36;
 
-/** A seeded PRNG (mulberry32), enough for test textures. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A seeded PRNG: the engine's own (engine/geometry/prng.ts, mulberry32). */
+export const rng = seededRandom;
 
 /** A wide smooth random texture (width × H) a camera can pan across. */
 export function texture(seed: number, width: number, mean: number, contrast: number): Float32Array {

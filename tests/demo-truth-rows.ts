@@ -1,16 +1,16 @@
 /**
  * Clock fits and a pitch registration for the demo match, made from the simulator's truth
- * (fixtures/demo/truth.json, truth-homography.json) — for export tests that must not depend
+ * (fixtures/demo/truth.json, truth-homography.json) — for tests (export, Watch, Review) that must not depend
  * on the Sync and Watch screens having produced them.
  *
  * truth.json: per clock segment, true = offset + rate · source time. Footage -> tracking
  * composes footage -> true -> tracking for the live footage segments (replays left out).
  */
 import { readFileSync } from 'node:fs';
-import type { ClockFit, ClockSegment } from '../../shared-types/index.ts';
-import type { RegistrationData } from '../../renderer/src/overlay/contract.ts';
+import type { ClockFit, ClockSegment } from '../shared-types/index.ts';
+import type { RegistrationData } from '../renderer/src/overlay/contract.ts';
 
-const DEMO = new URL('../../fixtures/demo/', import.meta.url);
+const DEMO = new URL('../fixtures/demo/', import.meta.url);
 interface Seg { period: number; fromT: number; toT: number; offset: number; rate: number; kind?: string }
 export const truth = JSON.parse(readFileSync(new URL('truth.json', DEMO), 'utf8')) as {
   clocks: Record<'tracking' | 'events' | 'footage', { segments: Seg[] }>;
