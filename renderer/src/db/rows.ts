@@ -246,6 +246,8 @@ export interface ExportJobRow {
   message?: string;
   /** The analyst agreed to replace files of the same names. */
   overwrite?: boolean;
+  /** Seconds of title card before each clip (export-clips/title-card.ts); absent or 0: none. */
+  titleCardS?: number;
   createdAt: number;
   updatedAt: number;
 }
