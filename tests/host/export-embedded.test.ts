@@ -7,9 +7,11 @@
  *   is the in-frame (compared with the source frames decoded by ffmpeg), audio present;
  * - demo clip round the corner: the overlay's team colours sit where the demo's true
  *   positions project through truth-homography.json;
- * - cancelling mid-way rejects and returns no bytes.
+ * - cancelling mid-way rejects and returns no bytes;
+ * - with a title card: the card's frames first (its colours), then the in-frame, the
+ *   duration card + (out − in), audio over the whole file and silent under the card.
  */
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -67,7 +69,7 @@ async function runExport(args: Record<string, any>): Promise<Buffer> {
         const renderer = await wm.createOverlayRenderer({ width: args.width, height: args.height, preserveDrawingBuffer: true });
         overlay = { data, settings: wm.defaultSettings(), renderer, eventFit: o.eventFit };
       }
-      const bytes = await wm.exportClipEmbedded({ source: blob, plan: args.plan, pts: args.pts, overlay, width: args.width, height: args.height, titleS: args.titleS ?? 0, caption: args.caption ?? false });
+      const bytes = await wm.exportClipEmbedded({ source: blob, plan: args.plan, pts: args.pts, overlay, width: args.width, height: args.height, titleS: args.titleS ?? 0, caption: args.caption ?? false, titleCard: args.titleCard });
       return (0, eval)(b64)(bytes);
     },
     { args, b64: PAGE_B64 },
@@ -100,6 +102,64 @@ describe('embedded export (WebCodecs + mediabunny in Debian Chromium)', () => {
     const last = frameOf(out, outFrame - inFrame - 1, 'gray');
     const lastDiffs = [60, 61, 62, 63, 64].map((n) => counterDiff(last, frameOf(REF, n, 'gray'), 320));
     expect(lastDiffs.indexOf(Math.min(...lastDiffs))).toBe(2);
+  });
+
+  it('opens on the title card (silent), then the clip from its in-frame', async () => {
+    const probe = await probeFootageFile(REF);
+    const inFrame = 13;
+    const outFrame = 63;
+    const plan = { title: 'ref', layers: [], footage: { inFrame, outFrame, inT: probe.pts[inFrame], outT: probe.pts[outFrame] } } as unknown as ClipPlan;
+    const card = { seconds: 2, title: 'Press after the goal kick', kicker: 'Pressing triggers · 3 of 7', clock: '1st half  12:04–12:06', note: 'Both 8s jump the pivot as soon as the keeper opens up; the full-back holds. Watch the far winger tuck in to close the switch.' };
+    const W = 1280;
+    const H = 720;
+    const out = join(scratch, 'ref-card.mp4');
+    // titleS 2: the lower-third title would show on the first clip frames; with a card it must not.
+    writeFileSync(out, await runExport({ url: '/ref.mp4', plan, pts: probe.pts, width: W, height: H, titleS: 2, titleCard: card }));
+    mkdirSync(join(ROOT, 'test-results'), { recursive: true });
+    execFileSync('ffmpeg', ['-v', 'error', '-y', '-i', out, '-vf', 'select=eq(n\\,0)', '-frames:v', '1', join(ROOT, 'test-results/export-embedded-title-card.png')]);
+    const cardFrames = 50; // 2 s at 25 fps
+    const info = ffprobe(out);
+    const v = info.streams.find((s) => s.codec_type === 'video')!;
+    const a = info.streams.find((s) => s.codec_type === 'audio');
+    expect(Number(v.nb_read_frames)).toBe(cardFrames + outFrame - inFrame);
+    const want = cardFrames / 25 + probe.pts[outFrame] - probe.pts[inFrame];
+    expect(Math.abs(Number(info.format.duration) - want)).toBeLessThanOrEqual(1 / 25 + 1e-6);
+
+    // Card frames: the background colour of drawTitleCard (#10161b) in a corner, and the
+    // title line (white, 52 px at 720p from x 132, baseline 348) far from it.
+    const bg = [0x10, 0x16, 0x1b];
+    for (const n of [0, cardFrames - 1]) {
+      const rgb = frameOf(out, n, 'rgb24');
+      for (const [x, y] of [[20, 20], [W - 20, H - 20], [W / 2, 120]]) {
+        const i = (y * W + x) * 3;
+        for (let c = 0; c < 3; c++) expect(Math.abs(rgb[i + c] - bg[c])).toBeLessThanOrEqual(8);
+      }
+      let bright = 0;
+      for (let y = 306; y < 350; y++) for (let x = 132; x < 700; x++) if (rgb[(y * W + x) * 3] > 160) bright++;
+      expect(bright / (44 * 568)).toBeGreaterThan(0.05);
+    }
+    // The first frame after the card is the in-frame (counter compared at the source size),
+    // and no lower-third title covers it (difference to source frame 13 stays small).
+    const after = frameOf(out, cardFrames, 'gray', '320:180');
+    const diffs = [11, 12, 13, 14, 15].map((n) => counterDiff(after, frameOf(REF, n, 'gray'), 320));
+    expect(diffs.indexOf(Math.min(...diffs))).toBe(2);
+    const whole = (x: Buffer, y: Buffer) => x.reduce((s, p, i) => s + Math.abs(p - y[i]), 0) / x.length;
+    expect(whole(after, frameOf(REF, 13, 'gray'))).toBeLessThan(6);
+
+    // Audio over the whole file; silent under the card, the reference's 440 Hz sine after it
+    // (RMS by Debian's ffmpeg 5.1 astats filter).
+    expect(a).toBeDefined();
+    expect(Math.abs(Number(a!.duration) - want)).toBeLessThan(0.1);
+    const rmsDb = (from: number, to: number) => {
+      const log = spawnSync('ffmpeg', ['-v', 'info', '-nostats', '-i', out, '-vn', '-af', `atrim=${from}:${to},astats=measure_perchannel=none`, '-f', 'null', '-'], { encoding: 'utf8' }).stderr;
+      const m = /Overall[\s\S]*?RMS level dB: (-?inf|-?[\d.]+)/.exec(log);
+      if (!m) throw new Error(`astats printed no overall RMS level for ${from}–${to} s:\n${log.slice(-600)}`);
+      return m[1].endsWith('inf') ? -Infinity : Number(m[1]);
+    };
+    const cardS = cardFrames / 25;
+    expect(rmsDb(0, cardS - 0.05)).toBeLessThan(-70);
+    // The sine at 0.1 peak is about −23 dB RMS in the source (astats on cfr25.mp4).
+    expect(rmsDb(cardS + 0.1, want - 0.1)).toBeGreaterThan(-30);
   });
 
   it('burns the overlay where the demo truth positions project (truth-homography.json)', async () => {

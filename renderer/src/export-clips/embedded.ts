@@ -6,19 +6,26 @@
  * buildOverlayScene) for each source frame's index and time, then laid over the picture
  * with the caption (match clock) and, for the first seconds, the clip's title.
  *
+ * With a title card the file opens on the card (opaque, silent) and the clip follows it
+ * unchanged; the card's frames and silence go through the same Conversion (lead-in.ts), so
+ * there is still one encode and one decoder configuration, and the lower-third title is
+ * left out (the card already says it).
+ *
  * Why mediabunny + WebCodecs and not the ffmpeg.wasm core: the overlay is a canvas here
  * already, and handing it to WebCodecs costs a copy, while ffmpeg.wasm would need every
  * overlay frame as PNG/raw in its virtual file system (see bench/export.bench.ts).
  *
  *   const bytes = await exportClipEmbedded({ url, plan, overlay, width: 1280, height: 720, signal, onProgress });
  */
-import { ALL_FORMATS, BlobSource, BufferTarget, Conversion, Input, Mp4OutputFormat, Output, UrlSource, type VideoSample } from 'mediabunny';
+import { ALL_FORMATS, BlobSource, BufferTarget, Conversion, Input, Mp4OutputFormat, Output, UrlSource, type AudioSample, type VideoSample } from 'mediabunny';
 import { frameAtOrBefore } from '../../../engine/timecode/index.ts';
 import { LAYER_IDS, type LayerSelection, type OverlayData, type OverlayRenderer, type OverlaySettings } from '../overlay/contract.ts';
 import { buildOverlayScene } from '../overlay/scene.ts';
 import { matchClockText, trackingToEventClock, type ClipPlan } from './plan.ts';
 import type { ClockFit } from '../../../shared-types/index.ts';
 import { footageToTracking } from '../../../engine/fit/footage-map.ts';
+import { titleCardFrames, type TitleCard } from './title-card.ts';
+import { frameStepAt, leadIn, type LeadIn } from './lead-in.ts';
 
 export interface OverlayInput {
   data: OverlayData;
@@ -39,8 +46,10 @@ export interface EmbeddedClipRequest {
   height: number;
   /** Draw the match clock caption (bottom left). Default true. */
   caption?: boolean;
-  /** Seconds the clip title stays on screen at the start (0: none). Default 2. */
+  /** Seconds the clip title stays on screen at the start (0: none). Default 2. Ignored with a card. */
   titleS?: number;
+  /** A title card ahead of the clip (title-card.ts): titleCardFrames(card, fps) frames, silent. */
+  titleCard?: TitleCard;
   signal?: AbortSignal;
   /** fraction 0..1 and seconds left (estimated from the speed so far). */
   onProgress?: (fraction: number, secondsLeft: number | undefined) => void;
@@ -116,16 +125,26 @@ export async function exportClipEmbedded(req: EmbeddedClipRequest): Promise<Uint
       const m = ov?.data.fit ? footageToTracking(ov.data.fit, srcT) : undefined;
       clock = m ? matchClockText(m.period, trackingToEventClock(ov?.eventFit, m.period, m.t)) : undefined;
     }
-    drawCaption(ctx, width, height, clock, sample.timestamp < titleS ? plan.title : undefined);
+    drawCaption(ctx, width, height, clock, !req.titleCard && sample.timestamp < titleS ? plan.title : undefined);
     return canvas;
   };
 
+  // Without a card the hooks are exactly today's (no audio hook: AAC may be copied as is).
+  // With one, each Conversion gets its own lead-in, since a second one starts over.
+  const step = frameStepAt(req.pts, plan.footage.inFrame);
+  const cardFrames = titleCardFrames(req.titleCard, 1 / step);
+  const hooks = () => {
+    if (!req.titleCard || !cardFrames) return { video: process, audio: undefined };
+    const lead: LeadIn = leadIn(req.titleCard, cardFrames, step, width, height);
+    return { video: (s: VideoSample) => lead.video(process(s), s), audio: (s: AudioSample) => lead.audio(s) };
+  };
+  const first = hooks();
   const conversion = await Conversion.init({
     input,
     output,
     trim: { start, end: end - half },
-    video: { codec: 'avc', forceTranscode: true, process, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
-    audio: { codec: 'aac' },
+    video: { codec: 'avc', forceTranscode: true, process: first.video, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
+    audio: { codec: 'aac', process: first.audio },
     showWarnings: false,
   });
   if (!conversion.isValid) {
@@ -136,12 +155,13 @@ export async function exportClipEmbedded(req: EmbeddedClipRequest): Promise<Uint
   let conv = conversion;
   if (conversion.discardedTracks.some((d) => d.track.type === 'audio')) {
     const output2 = new Output({ format: new Mp4OutputFormat({ fastStart: 'in-memory' }), target: new BufferTarget() });
+    const again = hooks();
     conv = await Conversion.init({
       input,
       output: output2,
       trim: { start, end: end - half },
-      video: { codec: 'avc', forceTranscode: true, process, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
-      audio: { codec: 'opus', forceTranscode: true },
+      video: { codec: 'avc', forceTranscode: true, process: again.video, processedWidth: width, processedHeight: height, keyFrameInterval: 2 },
+      audio: { codec: 'opus', forceTranscode: true, process: again.audio },
       showWarnings: false,
     });
   }
