@@ -73,23 +73,28 @@ export function drawTitleCard(ctx: CanvasLike, w: number, h: number, card: Title
   ctx.save();
   ctx.fillStyle = '#10161b';
   ctx.fillRect(0, 0, w, h);
-  ctx.fillStyle = '#ffd27a';
-  ctx.fillRect(96 * u, 250 * u, 10 * u, 150 * u);
   ctx.textBaseline = 'alphabetic';
   const x = 132 * u;
+  // A long title wraps to a second line (squeezing it into one would make it hard to read
+  // from the back of a meeting room); what follows moves down with it.
+  ctx.font = `700 ${Math.round(52 * u)}px system-ui, sans-serif`;
+  const titleLines = wrap(ctx, card.title, w - x - 64 * u, 2);
+  const extra = Math.max(0, titleLines.length - 1) * 60;
+  ctx.fillStyle = '#ffd27a';
+  ctx.fillRect(96 * u, 250 * u, 10 * u, (150 + extra) * u);
   ctx.fillStyle = '#9fb0bb';
   ctx.font = `600 ${Math.round(22 * u)}px system-ui, sans-serif`;
   ctx.fillText(card.kicker, x, 282 * u, w - x - 64 * u);
   ctx.fillStyle = '#ffffff';
   ctx.font = `700 ${Math.round(52 * u)}px system-ui, sans-serif`;
-  ctx.fillText(card.title, x, 348 * u, w - x - 64 * u);
+  titleLines.forEach((line, i) => ctx.fillText(line, x, (348 + i * 60) * u, w - x - 64 * u));
   ctx.fillStyle = '#d8e0e5';
   ctx.font = `500 ${Math.round(26 * u)}px system-ui, sans-serif`;
-  ctx.fillText(card.clock, x, 392 * u, w - x - 64 * u);
+  ctx.fillText(card.clock, x, (392 + extra) * u, w - x - 64 * u);
   if (card.note) {
     ctx.fillStyle = '#b9c4cb';
     ctx.font = `400 ${Math.round(22 * u)}px system-ui, sans-serif`;
-    wrap(ctx, card.note, w - x - 96 * u, 4).forEach((line, i) => ctx.fillText(line, x, (452 + i * 32) * u));
+    wrap(ctx, card.note, w - x - 96 * u, 4).forEach((line, i) => ctx.fillText(line, x, (452 + extra + i * 32) * u));
   }
   ctx.restore();
 }
