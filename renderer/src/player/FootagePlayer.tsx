@@ -33,9 +33,11 @@ export interface FootagePlayerProps {
   label?: string;
   /** Extra class on the outer element. */
   className?: string;
+  /** In/out marks (footage frames) drawn on the scrub bar. */
+  marks?: { inFrame?: number; outFrame?: number };
 }
 
-export function FootagePlayer({ src, probe, mediaOffset, clocks, onControl, keyboard = true, children, label = 'Footage player', className }: FootagePlayerProps) {
+export function FootagePlayer({ src, probe, mediaOffset, clocks, onControl, keyboard = true, children, label = 'Footage player', className, marks }: FootagePlayerProps) {
   const videoRef = useRef<HTMLVideoElement | null>(null);
   const [control, setControl] = useState<FootagePlayerControl | null>(null);
   const [frame, setFrame] = useState<ShownFrame | undefined>();
@@ -146,7 +148,8 @@ export function FootagePlayer({ src, probe, mediaOffset, clocks, onControl, keyb
           {error}
         </p>
       )}
-      <input
+      <div className="fp-scrub-wrap">
+        <input
         className="fp-scrub"
         type="range"
         min={0}
@@ -156,7 +159,9 @@ export function FootagePlayer({ src, probe, mediaOffset, clocks, onControl, keyb
         disabled={!control || !frame}
         aria-label="Footage position (frame)"
         onChange={(e) => void control?.seekToFrame(Number(e.target.value))}
-      />
+        />
+        <ScrubMarks marks={marks} last={last} />
+      </div>
       <div className="fp-bar">
         <div className="fp-transport" role="toolbar" aria-label="Transport">
           {btn({ kind: 'first' }, '⇤', 'First frame', PLAYER_KEYS.first)}
@@ -238,5 +243,23 @@ export function FootagePlayer({ src, probe, mediaOffset, clocks, onControl, keyb
         </p>
       )}
     </section>
+  );
+}
+
+/**
+ * The marked span over the scrub bar: a tick at the in and the out frame and a band
+ * between. Positions follow the range input's track, which starts and ends half a thumb in.
+ */
+function ScrubMarks({ marks, last }: { marks: FootagePlayerProps['marks']; last: number }) {
+  if (!marks || (marks.inFrame === undefined && marks.outFrame === undefined) || last <= 0) return null;
+  const at = (f: number) => `calc(var(--fp-thumb) / 2 + (100% - var(--fp-thumb)) * ${Math.max(0, Math.min(1, f / last))})`;
+  const { inFrame, outFrame } = marks;
+  const band = inFrame !== undefined && outFrame !== undefined && outFrame >= inFrame;
+  return (
+    <div className="fp-marks" aria-hidden="true" data-testid="scrub-marks">
+      {band && <span className="fp-mark-band" style={{ left: at(inFrame), width: `calc((100% - var(--fp-thumb)) * ${(outFrame - inFrame) / last})` }} />}
+      {inFrame !== undefined && <span className="fp-mark in" style={{ left: at(inFrame) }} title={`in: frame ${inFrame}`} />}
+      {outFrame !== undefined && <span className="fp-mark out" style={{ left: at(outFrame) }} title={`out: frame ${outFrame}`} />}
+    </div>
   );
 }

@@ -16,6 +16,7 @@ import { matchClockText, trackingToEventClock, type ClipPlan } from '../export-c
 import { loadExportContext, outputNames, planClips, queueExport, requeueInterrupted, runQueue, type ExportContext } from '../export-clips/run-export.ts';
 import { eventToTracking, eventsMatching, kindWord, spanFromPoints, spansFromEvents, type EventFilter } from './clip-rules.ts';
 import { addClips, addReel, clipsOfReel, deleteClips, deleteReel, mergeClipsInReel, moveClip, renameReel, updateClip, type StoredClip } from './reel-actions.ts';
+import { loadLastReel, saveLastReel } from '../marks/mark-store.ts';
 import './reels.css';
 
 /** "12:04" / "46:10.5" (match clock) -> seconds since the period's start. */
@@ -33,7 +34,12 @@ export function ReelsScreen({ projectId }: { projectId: number }) {
   const [reelId, setReelId] = useState<number | undefined>();
   const [error, setError] = useState('');
   const [confirmDelete, setConfirmDelete] = useState(false);
-  const current = reels?.find((r) => r.id === reelId) ?? reels?.[0];
+  // The reel open here is the one Watch and Sync add marked clips to by default.
+  const lastReel = useLive(() => loadLastReel(db, projectId).then((id) => id ?? null), [projectId]);
+  const current = reels?.find((r) => r.id === (reelId ?? lastReel)) ?? reels?.[0];
+  useEffect(() => {
+    if (current?.id !== undefined && lastReel !== undefined && current.id !== lastReel) void saveLastReel(db, projectId, current.id);
+  }, [db, projectId, current?.id, lastReel]);
   const safe = useCallback(
     async (f: () => Promise<unknown>) => {
       setError('');

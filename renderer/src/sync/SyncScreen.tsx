@@ -21,6 +21,8 @@ import { scanFootage, type ScanProgress } from '../candidates/index.ts';
 import { Lanes, type LaneLink, type LaneMark } from './Lanes.tsx';
 import { ResidualChart, type ResidualPoint } from './ResidualChart.tsx';
 import { autoPair, changesWithFit, computeSync, pairedTracking, rowKey, type SyncInputs } from './sync-model.ts';
+import { MarksBar, useMarks } from '../marks/MarksBar.tsx';
+import { MARK_KEYS } from '../marks/mark-keys.ts';
 import './sync.css';
 
 /** Sync keys: none of the player's (Space, arrows, J/K/L, G, M, Home/End, PageUp/Down, , .), nor Alt+digits or Ctrl+Z/Y. */
@@ -49,6 +51,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
   const fitRows = useLive(() => db.clockFits.where('projectId').equals(projectId).toArray(), [projectId]);
   const eventsFit = useLive(() => newestFit(db, projectId, 'events'), [projectId]);
   const [control, setControl] = useState<FootagePlayerControl | null>(null);
+  const { marks, setMarks } = useMarks(projectId, footageId);
   const [frameT, setFrameT] = useState<number | undefined>();
   const [selected, setSelected] = useState<string | undefined>();
   const [current, setCurrent] = useState(0);
@@ -234,7 +237,11 @@ export function SyncScreen({ projectId }: { projectId: number }) {
       <div className="sy-top">
         <div className="sy-player">
           {fs.error && <p className="error-text" role="alert">{fs.error}</p>}
-          {fs.src && probe ? <FootagePlayer src={fs.src} probe={probe} clocks={fs.clocks} onControl={setControl} label="Footage player (Sync)" /> : <p className="muted">Opening the footage…</p>}
+          {fs.src && probe ? <FootagePlayer src={fs.src} probe={probe} clocks={fs.clocks} onControl={setControl} label="Footage player (Sync)" {...(marks ? { marks } : {})} /> : <p className="muted">Opening the footage…</p>}
+          <MarksBar projectId={projectId} marks={marks} setMarks={setMarks} probe={probe} clocks={fs.clocks} player={control} />
+          <p className="muted small sy-keyhelp">
+            Clip marks: {MARK_KEYS.in} in · {MARK_KEYS.out} out (the clip's last frame) · {MARK_KEYS.clear} clear; anchor keys are beside the footage.
+          </p>
         </div>
         <aside className="sy-side">
           <section className="sy-box" aria-label="Mark an anchor">

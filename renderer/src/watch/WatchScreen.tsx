@@ -21,6 +21,8 @@ import { emptyRegistration, nudgePairs, suggestedPairs, withKeyframe, withoutKey
 import { markingsOf, solvePairs } from './registration/geometry.ts';
 import { mergeSettings, saveSettings, settingsKey } from './overlay-settings.ts';
 import { FootagePlayer, useFootageSource, type FootagePlayerControl } from '../player/index.ts';
+import { MarksBar, useMarks } from '../marks/MarksBar.tsx';
+import { MARK_KEYS } from '../marks/mark-keys.ts';
 import './watch.css';
 
 export function WatchScreen({ projectId }: { projectId: number }) {
@@ -51,6 +53,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   const probe = footage.probe;
   const [player, setPlayer] = useState<FootagePlayerControl | null>(null);
   const [frame, setFrame] = useState<DisplayedFrame | undefined>();
+  const { marks, setMarks } = useMarks(projectId, sources?.footageSourceId);
 
   // Registration working state (pairs on the current frame before they are saved).
   const [registering, setRegistering] = useState(false);
@@ -278,7 +281,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
       <div className="watch-main">
         {footage.error && <p className="error-text" role="alert">{footage.error}</p>}
         {footage.src && probe ? (
-          <FootagePlayer src={footage.src} probe={probe} {...(footage.mediaOffset !== undefined ? { mediaOffset: footage.mediaOffset } : {})} clocks={footage.clocks} onControl={setPlayer} label="Footage with overlay" className="watch-player">
+          <FootagePlayer src={footage.src} probe={probe} {...(footage.mediaOffset !== undefined ? { mediaOffset: footage.mediaOffset } : {})} clocks={footage.clocks} onControl={setPlayer} label="Footage with overlay" className="watch-player" {...(marks ? { marks } : {})}>
             <div className="watch-stage" ref={stageRef} data-registering={registering || undefined} onClick={onStageClick}>
               <div ref={footageHost} className="watch-overlay-host" />
               {registering && data && <PairMarkers pairs={pairs} solved={solved} w={data.footage.width} h={data.footage.height} selected={selected} />}
@@ -288,8 +291,9 @@ export function WatchScreen({ projectId }: { projectId: number }) {
           <p className="muted">Opening the footage…</p>
         )}
         <WatchTransport frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
+        <MarksBar projectId={projectId} marks={marks} setMarks={setMarks} probe={probe} clocks={footage.clocks} player={player} />
         <p className="muted small watch-keys">
- Overlay keys: {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register
+ Overlay keys: {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register · Clip marks: {MARK_KEYS.in} in · {MARK_KEYS.out} out · {MARK_KEYS.clear} clear
         </p>
         {loadError && <p className="error-text" role="alert">{loadError}</p>}
         {fitMissing && <p className="muted small">No footage clock fit yet: make one on the Sync screen (Alt+2); until then positions cannot be placed on the footage.</p>}
