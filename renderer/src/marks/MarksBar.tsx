@@ -75,15 +75,15 @@ export function MarksBar({ projectId, marks, setMarks, probe, clocks, player }: 
         <button type="button" onClick={() => act('in')} disabled={!player} title={`Mark the in point at the frame on screen (${MARK_KEYS.in})`} aria-keyshortcuts={MARK_KEYS.in}>
           <kbd>{MARK_KEYS.in}</kbd> Mark in
         </button>
-        <span className="mono mk-point" data-testid="mark-in">
+        <button type="button" className="quiet mono mk-point" data-testid="mark-in" disabled={marks?.inFrame === undefined || !player} onClick={() => marks?.inFrame !== undefined && void player?.seekToFrame(marks.inFrame)} title="Go to the in point">
           {markText(marks?.inFrame)}
-        </span>
+        </button>
         <button type="button" onClick={() => act('out')} disabled={!player} title={`Mark the out point (the clip's last frame) at the frame on screen (${MARK_KEYS.out})`} aria-keyshortcuts={MARK_KEYS.out}>
           <kbd>{MARK_KEYS.out}</kbd> Mark out
         </button>
-        <span className="mono mk-point" data-testid="mark-out">
+        <button type="button" className="quiet mono mk-point" data-testid="mark-out" disabled={marks?.outFrame === undefined || !player} onClick={() => marks?.outFrame !== undefined && void player?.seekToFrame(marks.outFrame)} title="Go to the out point">
           {markText(marks?.outFrame)}
-        </span>
+        </button>
         <button type="button" className="quiet" onClick={() => act('clear')} disabled={!hasMarks} title="Clear both marks (Shift+U)" aria-keyshortcuts={MARK_KEYS.clear}>
           <kbd>⇧U</kbd> Clear
         </button>
