@@ -161,7 +161,7 @@ describe.runIf(usingDemo)('in/out marks on Watch and Sync', () => {
     expect(app.outsideRequests).toEqual([]);
   });
 
-  it('shares the marks with Sync: a reversed pair is refused with a message, Shift+U clears', { timeout: 200_000 }, async () => {
+  it('shares the marks with Sync: a reversed pair is refused with a message, Shift+U clears, Y+U at once keeps both', { timeout: 200_000 }, async () => {
     const { page } = app;
     await page.keyboard.press('Alt+2');
     await page.getByRole('region', { name: 'Sync' }).waitFor({ timeout: 30_000 });
@@ -176,6 +176,12 @@ describe.runIf(usingDemo)('in/out marks on Watch and Sync', () => {
     await page.keyboard.press('Shift+U');
     await expect.poll(() => bar.getByTestId('mark-in').innerText()).toBe('not marked');
     await expect(bar.getByTestId('marks-readout').count()).resolves.toBe(0);
+    // Y and U straight after each other (no wait for the database between): both are kept, a one-frame clip.
+    await page.keyboard.press('y');
+    await page.keyboard.press('u');
+    await expect.poll(() => bar.getByTestId('mark-in').innerText()).toMatch(new RegExp(`frame ${IN_FRAME - 50}$`));
+    await expect.poll(() => bar.getByTestId('mark-out').innerText()).toMatch(new RegExp(`frame ${IN_FRAME - 50}$`));
+    await expect.poll(() => bar.getByTestId('marks-readout').innerText()).toMatch(/ · 0\.04 s$/);
     expect(app.pageErrors).toEqual([]);
   });
 });

@@ -3,7 +3,7 @@
  * buttons), their match clock and length, and "Add marked clip to reel…". Watch and Sync
  * both show it under their player; useMarks() gives the screen the marks for the scrub bar.
  */
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { FootageProbe } from '../../../shared-types/index.ts';
 import { useServices } from '../app/context.ts';
 import { isTypingTarget } from '../app/keys.ts';
@@ -11,22 +11,38 @@ import { useLive } from '../app/useLive.ts';
 import type { MatchClocks, PlayerControl } from '../player/index.ts';
 import { addMarkedClip, type ReelChoice } from './add-marked-clip.ts';
 import { MARK_KEYS, markActionOf, type MarkAction } from './mark-keys.ts';
-import { frameClock, markedSpan, marksReadout, type FrameMarks, type MarkInputs } from './mark-span.ts';
+import { durationText, frameClock, markedSpan, marksReadout, type FrameMarks, type MarkInputs } from './mark-span.ts';
 import { loadLastReel, loadMarks, saveMarks } from './mark-store.ts';
 import './marks.css';
 
-/** The stored marks of this footage (undefined while loading) and a setter that stores them. */
+/**
+ * The stored marks of this footage (undefined while loading) and an updater that stores
+ * them. Updates build on the last marks written, not the last read back, so Y then U
+ * pressed faster than the database answers keeps both.
+ */
 export function useMarks(projectId: number, footageSourceId: number | undefined) {
   const { db } = useServices();
   const marks = useLive(() => (footageSourceId === undefined ? Promise.resolve<FrameMarks>({}) : loadMarks(db, projectId, footageSourceId)), [projectId, footageSourceId]);
-  const setMarks = useCallback((m: FrameMarks) => (footageSourceId === undefined ? Promise.resolve() : saveMarks(db, projectId, footageSourceId, m)), [db, projectId, footageSourceId]);
-  return { marks, setMarks };
+  const latest = useRef<FrameMarks | undefined>(undefined);
+  useEffect(() => {
+    latest.current = marks;
+  }, [marks]);
+  const updateMarks = useCallback(
+    (change: (m: FrameMarks) => FrameMarks) => {
+      if (footageSourceId === undefined) return Promise.resolve();
+      const next = change(latest.current ?? {});
+      latest.current = next;
+      return saveMarks(db, projectId, footageSourceId, next);
+    },
+    [db, projectId, footageSourceId],
+  );
+  return { marks, updateMarks };
 }
 
 interface Props {
   projectId: number;
   marks: FrameMarks | undefined;
-  setMarks: (m: FrameMarks) => Promise<void>;
+  updateMarks: (change: (m: FrameMarks) => FrameMarks) => Promise<void>;
   probe: Pick<FootageProbe, 'pts' | 'nominalFps'> | undefined;
   clocks: MatchClocks;
   player: PlayerControl | null;
@@ -34,7 +50,7 @@ interface Props {
 
 const NEW = 'new';
 
-export function MarksBar({ projectId, marks, setMarks, probe, clocks, player }: Props) {
+export function MarksBar({ projectId, marks, updateMarks, probe, clocks, player }: Props) {
   const { db, info } = useServices();
   const [status, setStatus] = useState('');
   const [problem, setProblem] = useState('');
@@ -47,12 +63,12 @@ export function MarksBar({ projectId, marks, setMarks, probe, clocks, player }: 
     (a: MarkAction) => {
       setStatus('');
       setProblem('');
-      if (a === 'clear') return void setMarks({});
       const f = player?.current;
-      if (!f) return setProblem('No frame on screen yet: wait for the footage to show, then mark.');
-      void setMarks({ ...marks, [a === 'in' ? 'inFrame' : 'outFrame']: f.index }).catch((e: Error) => setProblem(`The mark was not kept: ${e.message}`));
+      if (a !== 'clear' && !f) return setProblem('No frame on screen yet: wait for the footage to show, then mark.');
+      const change = (m: FrameMarks): FrameMarks => (a === 'clear' ? {} : { ...m, [a === 'in' ? 'inFrame' : 'outFrame']: f!.index });
+      void updateMarks(change).catch((e: Error) => setProblem(`The marks were not kept: ${e.message}`));
     },
-    [player, marks, setMarks],
+    [player, updateMarks],
   );
 
   useEffect(() => {
@@ -107,7 +123,7 @@ export function MarksBar({ projectId, marks, setMarks, probe, clocks, player }: 
             try {
               const added = await addMarkedClip(db, { projectId, user: info.userName }, result.span, target, title);
               setAdding(false);
-              setStatus(`Added to ${added.newReel ? 'new ' : ''}reel ‘${added.reelTitle}’ — ${added.durationS.toFixed(1)} s (Ctrl+Z takes it back)`);
+              setStatus(`Added to ${added.newReel ? 'new ' : ''}reel ‘${added.reelTitle}’ — ${durationText(added.durationS)} (Ctrl+Z takes it back)`);
             } catch (e) {
               setProblem(`Not added: ${(e as Error).message}`);
             }

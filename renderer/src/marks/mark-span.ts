@@ -124,7 +124,12 @@ function segmentShowing(fit: ClockFit, t: number): ClockFit['segments'][number] 
 export function marksReadout(r: MarkResult): string {
   if (!r.ok) return r.problem;
   const s = r.span;
-  return `P${s.period} in ${s.matchIn} · out ${s.matchOut} · ${s.durationS.toFixed(1)} s`;
+  return `P${s.period} in ${s.matchIn} · out ${s.matchOut} · ${durationText(s.durationS)}`;
+}
+
+/** "12.4 s"; under a second in hundredths, so a few frames do not read as 0.0 s. */
+export function durationText(s: number): string {
+  return `${s.toFixed(s < 1 ? 2 : 1)} s`;
 }
 
 /** Match clock of one marked frame ("P1 12:04.2"), or why it has none. */

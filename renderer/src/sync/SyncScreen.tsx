@@ -51,7 +51,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
   const fitRows = useLive(() => db.clockFits.where('projectId').equals(projectId).toArray(), [projectId]);
   const eventsFit = useLive(() => newestFit(db, projectId, 'events'), [projectId]);
   const [control, setControl] = useState<FootagePlayerControl | null>(null);
-  const { marks, setMarks } = useMarks(projectId, footageId);
+  const { marks, updateMarks } = useMarks(projectId, footageId);
   const [frameT, setFrameT] = useState<number | undefined>();
   const [selected, setSelected] = useState<string | undefined>();
   const [current, setCurrent] = useState(0);
@@ -238,7 +238,7 @@ export function SyncScreen({ projectId }: { projectId: number }) {
         <div className="sy-player">
           {fs.error && <p className="error-text" role="alert">{fs.error}</p>}
           {fs.src && probe ? <FootagePlayer src={fs.src} probe={probe} clocks={fs.clocks} onControl={setControl} label="Footage player (Sync)" {...(marks ? { marks } : {})} /> : <p className="muted">Opening the footage…</p>}
-          <MarksBar projectId={projectId} marks={marks} setMarks={setMarks} probe={probe} clocks={fs.clocks} player={control} />
+          <MarksBar projectId={projectId} marks={marks} updateMarks={updateMarks} probe={probe} clocks={fs.clocks} player={control} />
           <p className="muted small sy-keyhelp">
             Clip marks: {MARK_KEYS.in} in · {MARK_KEYS.out} out (the clip's last frame) · {MARK_KEYS.clear} clear; anchor keys are beside the footage.
           </p>

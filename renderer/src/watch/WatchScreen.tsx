@@ -53,7 +53,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
   const probe = footage.probe;
   const [player, setPlayer] = useState<FootagePlayerControl | null>(null);
   const [frame, setFrame] = useState<DisplayedFrame | undefined>();
-  const { marks, setMarks } = useMarks(projectId, sources?.footageSourceId);
+  const { marks, updateMarks } = useMarks(projectId, sources?.footageSourceId);
 
   // Registration working state (pairs on the current frame before they are saved).
   const [registering, setRegistering] = useState(false);
@@ -291,7 +291,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
           <p className="muted">Opening the footage…</p>
         )}
         <WatchTransport frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
-        <MarksBar projectId={projectId} marks={marks} setMarks={setMarks} probe={probe} clocks={footage.clocks} player={player} />
+        <MarksBar projectId={projectId} marks={marks} updateMarks={updateMarks} probe={probe} clocks={footage.clocks} player={player} />
         <p className="muted small watch-keys">
  Overlay keys: {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register · Clip marks: {MARK_KEYS.in} in · {MARK_KEYS.out} out · {MARK_KEYS.clear} clear
         </p>

@@ -5,7 +5,7 @@ import { WhistlemarkDb } from '../../../renderer/src/db/database.ts';
 import { undo } from '../../../renderer/src/history/history.ts';
 import { planClip } from '../../../renderer/src/export-clips/plan.ts';
 import { clipsOfReel, addReel } from '../../../renderer/src/reels/reel-actions.ts';
-import { markedSpan, frameClock, type MarkInputs } from '../../../renderer/src/marks/mark-span.ts';
+import { durationText, markedSpan, marksReadout, frameClock, type MarkInputs } from '../../../renderer/src/marks/mark-span.ts';
 import { markActionOf } from '../../../renderer/src/marks/mark-keys.ts';
 import { loadLastReel, loadMarks, marksKey, readMarks, saveMarks } from '../../../renderer/src/marks/mark-store.ts';
 import { addMarkedClip } from '../../../renderer/src/marks/add-marked-clip.ts';
@@ -40,6 +40,7 @@ describe('in/out marks -> clip span', () => {
     expect(r.span.matchOut).toBe('01:10.4');
     expect(r.span.title).toBe('Marked 00:58–01:10');
     expect(r.span.unfittedS).toBe(0);
+    expect(marksReadout(r)).toBe('P1 in 00:58.0 · out 01:10.4 · 12.4 s');
   });
 
   it('one marked frame is a one-frame clip, and the export plan gives back exactly the marked frames', () => {
@@ -56,6 +57,7 @@ describe('in/out marks -> clip span', () => {
       });
       expect([plan.footage.inFrame, plan.footage.outFrame - 1]).toEqual([a, b]);
     }
+    expect(durationText(0.04)).toBe('0.04 s');
   });
 
   it('period 2 goes through its own segment (drift included) and counts on from 45:00', () => {
