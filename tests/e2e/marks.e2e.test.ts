@@ -124,6 +124,9 @@ describe.runIf(usingDemo)('in/out marks on Watch and Sync', () => {
     await expect(page.getByTestId('scrub-marks').locator('.fp-mark').count()).resolves.toBe(2);
     await shot(page, 'marks-01-watch-marked');
 
+    const onWatch: string[] = [];
+    for (const name of ['Dots', 'Ball', 'Trails', 'Offside line', 'Shape']) if (await page.getByLabel(`${name} for Home`).isChecked()) onWatch.push(name);
+    expect(onWatch).toEqual(['Dots', 'Ball', 'Trails', 'Offside line']);
     await bar.getByRole('button', { name: /Add marked clip to reel/ }).click();
     const form = page.getByRole('form', { name: 'Add marked clip to reel' });
     await expect(form.getByLabel('Reel to add to').locator('option:checked').innerText()).resolves.toBe('Reel 2 (last used)');
@@ -140,6 +143,10 @@ describe.runIf(usingDemo)('in/out marks on Watch and Sync', () => {
     // The export plan maps the stored span back onto exactly the marked frames.
     await expect.poll(() => list.getByRole('listitem').first().innerText(), { timeout: 20_000 }).toContain(`frames ${IN_FRAME}–${OUT_FRAME}`);
     await expect(list.getByRole('listitem').first().innerText()).resolves.toContain(`${seconds} s`);
+    // The clip shows the layers that were on on Watch (checkboxes there), not just the Reels default.
+    const layerGroup = list.getByRole('group', { name: 'Overlay layers of clip 1' });
+    for (const name of onWatch) await expect(layerGroup.getByRole('button', { name, exact: true }).getAttribute('aria-pressed')).resolves.toBe('true');
+    await expect(layerGroup.getByRole('button', { name: 'Shape', exact: true }).getAttribute('aria-pressed')).resolves.toBe('false');
     await shot(page, 'marks-03-reels-clip');
 
     await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());

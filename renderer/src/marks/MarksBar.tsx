@@ -46,11 +46,13 @@ interface Props {
   probe: Pick<FootageProbe, 'pts' | 'nominalFps'> | undefined;
   clocks: MatchClocks;
   player: PlayerControl | null;
+  /** Overlay layers a clip added from here shows (Watch: the ones on screen). */
+  layers?: string[];
 }
 
 const NEW = 'new';
 
-export function MarksBar({ projectId, marks, updateMarks, probe, clocks, player }: Props) {
+export function MarksBar({ projectId, marks, updateMarks, probe, clocks, player, layers }: Props) {
   const { db, info } = useServices();
   const [status, setStatus] = useState('');
   const [problem, setProblem] = useState('');
@@ -121,7 +123,7 @@ export function MarksBar({ projectId, marks, updateMarks, probe, clocks, player 
           onAdd={async (target, title) => {
             setProblem('');
             try {
-              const added = await addMarkedClip(db, { projectId, user: info.userName }, result.span, target, title);
+              const added = await addMarkedClip(db, { projectId, user: info.userName }, result.span, target, title, layers);
               setAdding(false);
               setStatus(`Added to ${added.newReel ? 'new ' : ''}reel ‘${added.reelTitle}’ — ${durationText(added.durationS)} (Ctrl+Z takes it back)`);
             } catch (e) {

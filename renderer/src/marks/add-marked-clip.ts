@@ -20,7 +20,8 @@ export interface AddedClip {
   newReel: boolean;
 }
 
-export async function addMarkedClip(db: WhistlemarkDb, ctx: ActionContext, span: MarkedSpan, target: ReelChoice, title?: string): Promise<AddedClip> {
+/** `layers`: the overlay layers the clip shows (Watch passes the ones on screen); absent: the Reels default. */
+export async function addMarkedClip(db: WhistlemarkDb, ctx: ActionContext, span: MarkedSpan, target: ReelChoice, title?: string, layers?: string[]): Promise<AddedClip> {
   const clipTitle = title?.trim() || span.title;
   // Checked before anything is written, so a bad span never leaves an empty new reel behind.
   const clip = spanFromPoints(span.period, span.from, span.to, clipTitle);
@@ -35,7 +36,7 @@ export async function addMarkedClip(db: WhistlemarkDb, ctx: ActionContext, span:
     reelTitle = target.newReelTitle.trim() || 'Marked clips';
     reelId = await addReel(db, ctx, reelTitle);
   }
-  const [clipId] = await addClips(db, ctx, reelId, [clip]);
+  const [clipId] = await addClips(db, ctx, reelId, [clip], ...(layers ? [layers] : []));
   await saveLastReel(db, ctx.projectId, reelId);
   return { reelId, reelTitle, clipId, title: clipTitle, durationS: span.durationS, newReel: !('reelId' in target) };
 }

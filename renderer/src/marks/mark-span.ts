@@ -6,8 +6,9 @@
  * (the frame marked out is the last one the clip shows), so the export plan
  * (export-clips/plan.ts) gives back exactly frames in..out.
  *
- *   markedSpan({ inFrame: 300, outFrame: 609 }, { pts, nominalFps: 25, fit, eventFit })
- *     -> { ok: true, span: { period: 1, from: 1.52, to: 13.92, title: 'Marked 00:01–00:13', ... } }
+ *   // 25 fps, period 1 fitted as tracking = footage − 10 s, event clock = tracking − 2 s
+ *   markedSpan({ inFrame: 1750, outFrame: 2059 }, { pts, nominalFps: 25, fit, eventFit })
+ *     -> { ok: true, span: { period: 1, from: 60, to: 72.4, title: 'Marked 00:58–01:10', ... } }
  */
 import type { ClockFit, PeriodId } from '../../../shared-types/index.ts';
 import { footageToTracking } from '../../../engine/fit/footage-map.ts';

@@ -291,7 +291,7 @@ export function WatchScreen({ projectId }: { projectId: number }) {
           <p className="muted">Opening the footage…</p>
         )}
         <WatchTransport frame={frame} data={data} showMarks={showMarks} onMarks={() => setShowMarks((v) => !v)} />
-        <MarksBar projectId={projectId} marks={marks} updateMarks={updateMarks} probe={probe} clocks={footage.clocks} player={player} />
+        <MarksBar projectId={projectId} marks={marks} updateMarks={updateMarks} probe={probe} clocks={footage.clocks} player={player} layers={LAYER_MENU.filter((l) => settings.layers[l.id].home || settings.layers[l.id].away).map((l) => l.id)} />
         <p className="muted small watch-keys">
  Overlay keys: {LAYER_MENU.map((l) => `${l.key} ${l.title.toLowerCase()}`).join(' · ')} (Shift: away only) · P pitch marks · R register · Clip marks: {MARK_KEYS.in} in · {MARK_KEYS.out} out · {MARK_KEYS.clear} clear
         </p>

@@ -158,7 +158,7 @@ describe('marks and reels in the database', () => {
     const added = await addMarkedClip(db, ctx, r.span, { reelId });
     expect(added).toMatchObject({ reelId, reelTitle: 'Pressing', title: 'Marked 00:58–01:10', newReel: false });
     const [clip] = await clipsOfReel(db, reelId);
-    expect(clip).toMatchObject({ period: 1, title: 'Marked 00:58–01:10', eventIds: [], preRoll: 0, postRoll: 0 });
+    expect(clip).toMatchObject({ period: 1, title: 'Marked 00:58–01:10', eventIds: [], preRoll: 0, postRoll: 0, layers: ['dots', 'ball'] });
     expect(clip.from).toBeCloseTo(60, 9);
     expect(clip.to).toBeCloseTo(72.4, 9);
     expect(await loadLastReel(db, 1)).toBe(reelId);
@@ -170,9 +170,9 @@ describe('marks and reels in the database', () => {
   it('makes a new reel first when asked (its own step), with the title typed', async () => {
     const r = markedSpan({ inFrame: frameOf(290), outFrame: frameOf(300) }, inp);
     if (!r.ok) throw new Error(r.problem);
-    const added = await addMarkedClip(db, ctx, r.span, { newReelTitle: '  Second half  ' }, 'Late run');
+    const added = await addMarkedClip(db, ctx, r.span, { newReelTitle: '  Second half  ' }, 'Late run', ['dots', 'offside']);
     expect(added).toMatchObject({ reelTitle: 'Second half', title: 'Late run', newReel: true });
-    expect((await clipsOfReel(db, added.reelId)).map((c) => c.title)).toEqual(['Late run']);
+    expect((await clipsOfReel(db, added.reelId)).map((c) => [c.title, c.layers])).toEqual([['Late run', ['dots', 'offside']]]);
     await undo(db, 1, 'analyst');
     await undo(db, 1, 'analyst');
     expect(await db.reels.count()).toBe(0);
