@@ -14,6 +14,7 @@ import { NavRail, screenForKey, type ScreenId } from './NavRail.tsx';
 import { ProjectBar } from './ProjectBar.tsx';
 import { useLive } from './useLive.ts';
 import { AnalysisAutoRun } from '../analysis/AnalysisBar.tsx';
+import { resumeAfterRestart } from '../reels/export-queue.ts';
 
 export function App({ services }: { services: AppServices }) {
   const { db } = services;
@@ -35,6 +36,13 @@ export function App({ services }: { services: AppServices }) {
   const current = projects?.find((p) => p.id === chosen) ?? projects?.[0];
   const seeding = !!seed && seed.some((s) => s.state === 'waiting' || s.state === 'running');
   useUndoKeys(db, current?.id, services.info.userName, report);
+
+  // An export a restart cut off carries on by itself, whatever screen the app opens on.
+  const currentId = current?.id;
+  useEffect(() => {
+    if (!ready || seeding || currentId === undefined) return;
+    resumeAfterRestart(db, services.host, currentId, report).catch((e: Error) => report(`Resuming the export queue failed: ${e.message}`));
+  }, [ready, seeding, currentId, db, services.host, report]);
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {

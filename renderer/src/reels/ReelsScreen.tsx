@@ -13,8 +13,9 @@ import { useLive } from '../app/useLive.ts';
 import type { EventRow, ExportJobRow } from '../db/rows.ts';
 import { LAYER_MENU } from '../overlay/layers/index.ts';
 import { matchClockText, trackingToEventClock, type ClipPlan } from '../export-clips/plan.ts';
-import { loadExportContext, outputNames, planClips, queueExport, requeueInterrupted, runQueue, type ExportContext } from '../export-clips/run-export.ts';
+import { loadExportContext, outputNames, planClips, queueExport, type ExportContext } from '../export-clips/run-export.ts';
 import { eventToTracking, eventsMatching, kindWord, spanFromPoints, spansFromEvents, type EventFilter } from './clip-rules.ts';
+import { cancelJob, clipsLeft, startQueue, useLiveProgress, type LiveProgress } from './export-queue.ts';
 import { addClips, addReel, clipsOfReel, deleteClips, deleteReel, mergeClipsInReel, moveClip, renameReel, updateClip, type StoredClip } from './reel-actions.ts';
 import { loadLastReel, saveLastReel } from '../marks/mark-store.ts';
 import './reels.css';
@@ -494,20 +495,12 @@ interface ExportProps {
   onError: (m: string) => void;
 }
 
-interface Live {
-  fraction: number;
-  secondsLeft?: number;
-  doing: string;
-}
-
-const controllers = new Map<number, AbortController>();
-
 function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProblem, planned, onError }: ExportProps) {
   const { db, host } = useServices();
   const folderSetting = useLive(() => db.settings.get(`exportFolder:${projectId}`).then((r) => (r?.value as string | undefined) ?? ''), [projectId]);
   const [folder, setFolder] = useState<string | undefined>();
   const jobs = useLive(() => db.exportJobs.where('projectId').equals(projectId).reverse().sortBy('createdAt'), [projectId]);
-  const [live, setLive] = useState<Record<number, Live>>({});
+  const live = useLiveProgress();
   const [conflict, setConflict] = useState<{ names: string[]; dir: string } | null>(null);
   const dir = folder ?? folderSetting ?? '';
 
@@ -515,22 +508,8 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
     if (folderSetting === '' && folder === undefined) host.listDirectory().then((l) => setFolder((f) => f ?? l.path), () => {});
   }, [folderSetting, folder, host]);
 
-  const run = useCallback(() => {
-    void runQueue(db, host, projectId, {
-      signalFor: (id) => {
-        const ac = new AbortController();
-        controllers.set(id, ac);
-        return ac.signal;
-      },
-      onProgress: (id, fraction, secondsLeft, doing) => setLive((l) => ({ ...l, [id]: { fraction, ...(secondsLeft !== undefined ? { secondsLeft } : {}), doing } })),
-    }).catch((e: Error) => onError(e.message));
-  }, [db, host, projectId, onError]);
-
-  // Resume what a restart cut off, then whatever is still queued.
-  useEffect(() => {
-    void requeueInterrupted(db, projectId).then(run);
-  }, [db, projectId, run]);
-
+  // Jobs a restart cut off are resumed by the app at start-up (App.tsx, reels/export-queue.ts),
+  // not here: a panel mounted again while a job runs must leave it running.
   const flagged = clips.filter((c) => {
     const p = planned.get(c.id);
     return typeof p === 'object' && p.nonLive.length > 0;
@@ -556,12 +535,7 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
     if (taken.length && !overwrite) return setConflict({ names: taken, dir: listing.path });
     await db.settings.put({ key: `exportFolder:${projectId}`, value: listing.path });
     await queueExport(db, { projectId, reelId, clipIds: clips.map((c) => c.id), directory: listing.path, overwrite });
-    run();
-  };
-
-  const cancel = async (j: ExportJobRow) => {
-    if (j.state === 'queued') await db.exportJobs.update(j.id!, { state: 'cancelled', message: 'cancelled before it started', updatedAt: Date.now() });
-    controllers.get(j.id!)?.abort();
+    startQueue(db, host, projectId, onError);
   };
 
   return (
@@ -598,10 +572,13 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
                   <div style={{ width: `${pct}%` }} />
                 </div>
                 <span className="mono small">{pct}%</span>
-                {j.state === 'running' && l?.secondsLeft !== undefined && <span className="muted small">about {Math.ceil(l.secondsLeft)} s left · {l.doing}</span>}
-                {j.state !== 'running' && j.message && <span className="muted small job-msg">{j.message}</span>}
+                {(j.state === 'running' || j.state === 'queued') ? (
+                  <span className="muted small job-msg">{jobDoing(j, l)}</span>
+                ) : (
+                  j.message && <span className="muted small job-msg">{j.message}</span>
+                )}
                 {(j.state === 'running' || j.state === 'queued') && (
-                  <button className="quiet" onClick={() => void cancel(j)}>
+                  <button className="quiet" onClick={() => void cancelJob(db, j).catch((e: Error) => onError(e.message))}>
                     Cancel
                   </button>
                 )}
@@ -625,4 +602,17 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
       )}
     </section>
   );
+}
+
+/** What a queued or running job shows: resumed or not, clips left, time left, the file being written. */
+function jobDoing(j: ExportJobRow, l: LiveProgress | undefined): string {
+  const parts: string[] = [];
+  const { left, total } = clipsLeft(j);
+  if (j.message?.startsWith('resumed')) parts.push(`resumed after a restart: ${left} of ${total} clips left`);
+  else if (j.state === 'queued') parts.push('waiting for the export before it');
+  if (j.state === 'running' && l) {
+    if (l.secondsLeft !== undefined) parts.push(`about ${Math.ceil(l.secondsLeft)} s left`);
+    parts.push(l.doing);
+  }
+  return parts.join(' · ');
 }
