@@ -161,6 +161,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
     const names = outputNames(reel.title, plans);
     const total = plans.reduce((s, p) => s + p.durationS, 0);
     let doneS = 0;
+    let carriedS = 0; // clips finished before a restart: not part of this run's pace
     const t0 = performance.now();
     const encoded: Uint8Array[] = [];
     const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true }) : undefined;
@@ -171,6 +172,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
         if (outputs.includes(n.mp4)) {
           resumed = true;
           doneS += p.durationS;
+          carriedS += p.durationS;
           continue; // finished before a restart
         }
         const bytes = await exportClipEmbedded({
@@ -182,8 +184,9 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
           ...(signal ? { signal } : {}),
           onProgress: (f) => {
             const frac = total > 0 ? (doneS + f * p.durationS) / total : 0;
+            const thisRun = total > 0 ? (doneS - carriedS + f * p.durationS) / total : 0;
             const spent = (performance.now() - t0) / 1000;
-            hooks.onProgress?.(id, frac, frac > 0.02 ? (spent / frac) * (1 - frac) : undefined, n.mp4);
+            hooks.onProgress?.(id, frac, thisRun > 0.02 ? (spent / thisRun) * (1 - frac) : undefined, n.mp4);
           },
         });
         if (signal?.aborted) throw new ExportCancelled();
