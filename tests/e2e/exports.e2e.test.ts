@@ -13,6 +13,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { shareWithinTruth } from '../unit/export/truth-share.ts';
 import { DEMO_DIR, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
+import { readStores } from './setup-rows.ts';
 
 let app: RunningApp;
 const out = mkdtempSync(join(tmpdir(), 'wm-e2e-exports-'));
@@ -31,28 +32,17 @@ const readCsv = (path: string) => Papa.parse<CsvRow>(readFileSync(path, 'utf8').
 const share = (rows: CsvRow[], col: 'logged_t_s' | 'fitted_t_s' | 'corrected_t_s') =>
   shareWithinTruth(truth, rows.map((r) => ({ row: Number(r.row), period: Number(col === 'corrected_t_s' ? r.corrected_period : r.logged_period), t: r[col] === '' ? null : Number(r[col]) })));
 
-/** Raw IndexedDB reads in the page (the database the app itself uses). */
+/** Rows per table of one project, read from the page's IndexedDB (the database the app itself uses). */
 async function tableCounts(page: Page, projectId: number): Promise<Record<string, number>> {
-  return page.evaluate(async (pid) => {
-    const db: IDBDatabase = await new Promise((res, rej) => {
-      const r = indexedDB.open('whistlemark');
-      r.onsuccess = () => res(r.result);
-      r.onerror = () => rej(r.error);
-    });
-    const all = <T,>(store: string) =>
-      new Promise<T[]>((res) => {
-        const q = db.transaction(store).objectStore(store).getAll();
-        q.onsuccess = () => res(q.result as T[]);
-      });
-    const counts: Record<string, number> = {};
-    const sources = (await all<{ id: number; projectId: number }>('sources')).filter((s) => s.projectId === pid);
-    const ids = new Set(sources.map((s) => s.id));
-    counts.sources = sources.length;
-    for (const t of ['trackingBlocks', 'trackingMeta', 'eventLogs', 'footage']) counts[t] = (await all<{ sourceId: number }>(t)).filter((r) => ids.has(r.sourceId)).length;
-    for (const t of ['events', 'corrections', 'clockFits', 'anchors', 'audit', 'nonLive', 'reels', 'clips']) counts[t] = (await all<{ projectId: number }>(t)).filter((r) => r.projectId === pid).length;
-    db.close();
-    return counts;
-  }, projectId);
+  const bySource = ['trackingBlocks', 'trackingMeta', 'eventLogs', 'footage'];
+  const byProject = ['events', 'corrections', 'clockFits', 'anchors', 'audit', 'nonLive', 'reels', 'clips'];
+  const rows = (await readStores(page, ['sources', ...bySource, ...byProject])) as Record<string, { projectId?: number; sourceId?: number; id?: number }[]>;
+  const sources = rows.sources.filter((s) => s.projectId === projectId);
+  const ids = new Set(sources.map((s) => s.id));
+  const counts: Record<string, number> = { sources: sources.length };
+  for (const t of bySource) counts[t] = rows[t].filter((r) => ids.has(r.sourceId)).length;
+  for (const t of byProject) counts[t] = rows[t].filter((r) => r.projectId === projectId).length;
+  return counts;
 }
 
 /** Ctrl+O with no dialog open; waits until the chooser has listed its first folder (a later
@@ -95,7 +85,9 @@ describe('exports and the match project file', () => {
     // The app analyses the demo by itself after the import (renderer/src/analysis): wait
     // for its proposals and fit, then accept those above the confidence as the Review
     // screen's "accept all above" would — one commit of renderer/src/history/history.ts,
-    // written here in the page's own IndexedDB in the shape commit() writes.
+    // written here in the page's own IndexedDB in the shape commit() writes. It reads and
+    // writes in one transaction (not through tests/e2e/setup-rows.ts), so the rows it accepts are
+    // the rows it read.
     const accept = () =>
       page.evaluate(async (threshold) => {
         const db: IDBDatabase = await new Promise((res, rej) => {

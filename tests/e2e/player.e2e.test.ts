@@ -15,6 +15,8 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { frameShownAt } from '../../renderer/src/player/frame-table.ts';
 import { DEMO_DIR, ROOT, shot, startApp, type RunningApp } from './harness.ts';
+import { demoProject, storeDemoRows } from './setup-rows.ts';
+import type { ClockFit } from '../../shared-types/index.ts';
 
 const REF = join(ROOT, 'fixtures/reference');
 const BITS = 12;
@@ -260,39 +262,12 @@ describe('footage player with a footage clock fit (demo match)', () => {
     const seg = (period: 1 | 2, fromT: number, toT: number, offset: number, rate: number) => ({ period, fromT, toT, offset, rate, driftPpm: (rate - 1) * 1e6, offsetSe: 0, rateSe: 0, rmsResidual: 0, leaveOneOutMax: 0, points: [] });
     const fit = { source: 'footage', method: 'huber', segments: truth.clocks.footage.segments.filter((s) => s.kind === 'live').map((s) => seg(s.period, s.fromT, s.toT, (s.offset - trk(s.period).offset) / trk(s.period).rate, s.rate / trk(s.period).rate)) };
     const eventFit = { source: 'events', method: 'huber', segments: ([1, 2] as const).map((p) => seg(p, 0, 3000, (evt(p).offset - trk(p).offset) / trk(p).rate, evt(p).rate / trk(p).rate)) };
-    // The demo project is made on first start; store both fits beside it (raw IndexedDB, as Dexie would).
+    // The demo project is made on first start; store both fits beside it (raw IndexedDB, as Dexie would: tests/e2e/setup-rows.ts).
     await page.goto(app.url);
     await page.getByRole('heading', { name: 'The demo match is ready' }).waitFor({ timeout: 170_000 });
-    const ids = await page.evaluate(
-      async ({ fit, eventFit }) => {
-        const db = await new Promise<IDBDatabase>((ok, fail) => {
-          const r = indexedDB.open('whistlemark');
-          r.onsuccess = () => ok(r.result);
-          r.onerror = () => fail(r.error);
-        });
-        const all = <T,>(store: string) =>
-          new Promise<T[]>((ok, fail) => {
-            const r = db.transaction(store).objectStore(store).getAll();
-            r.onsuccess = () => ok(r.result as T[]);
-            r.onerror = () => fail(r.error);
-          });
-        const projects = await all<{ id: number; demo?: boolean }>('projects');
-        const projectId = projects.find((p) => p.demo)!.id;
-        const sources = await all<{ id: number; projectId: number; kind: string }>('sources');
-        const footage = sources.find((s) => s.projectId === projectId && s.kind === 'footage')!.id;
-        const events = sources.find((s) => s.projectId === projectId && s.kind === 'events')!.id;
-        await new Promise<void>((ok, fail) => {
-          const tx = db.transaction('clockFits', 'readwrite');
-          tx.objectStore('clockFits').add({ projectId, sourceId: footage, fit, createdAt: Date.now() });
-          tx.objectStore('clockFits').add({ projectId, sourceId: events, fit: eventFit, createdAt: Date.now() });
-          tx.oncomplete = () => ok();
-          tx.onerror = () => fail(tx.error);
-        });
-        db.close();
-        return { projectId, footage };
-      },
-      { fit, eventFit },
-    );
+    const demo = await demoProject(page);
+    await storeDemoRows(page, demo, { footageFit: fit as ClockFit, eventFit: eventFit as ClockFit });
+    const ids = { projectId: demo.projectId, footage: demo.footageSourceId };
     await page.goto(`${new URL(app.url).origin}/#footage-check?project=${ids.projectId}&source=${ids.footage}`);
     await page.reload();
     await expect.poll(() => frameText(page), { timeout: 60_000 }).toMatch(/^0 \//);

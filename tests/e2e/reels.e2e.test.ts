@@ -5,7 +5,7 @@
  *
  * Set-up (said plainly): the footage and event-log clock fits and the pitch registration
  * are written from the simulator's truth (fixtures/demo/truth.json, truth-homography.json)
- * straight into the app's IndexedDB, because the Sync and Watch screens that make them are
+ * straight into the app's IndexedDB (tests/e2e/setup-rows.ts), because the Sync and Watch screens that make them are
  * built elsewhere and the export must be tested without them.
  */
 import { execFileSync } from 'node:child_process';
@@ -15,6 +15,7 @@ import { join } from 'node:path';
 import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SHOTS, shot, startApp, type RunningApp } from './harness.ts';
+import { demoProject, storeDemoRows } from './setup-rows.ts';
 import { truth, truthEventFit, truthFootageFit, truthRegistration } from '../demo-truth-rows.ts';
 
 const require = createRequire(import.meta.url);
@@ -37,29 +38,7 @@ describe('Reels screen', () => {
 
     // Truth rows in place of the Sync/Watch results (see the header).
     const rows = { footageFit: truthFootageFit(), eventFit: truthEventFit(), registration: truthRegistration(0, truth.footage.frameCount - 1) };
-    await page.evaluate(async (rows) => {
-      const db: IDBDatabase = await new Promise((res, rej) => {
-        const r = indexedDB.open('whistlemark');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      const all = <T,>(store: string): Promise<T[]> =>
-        new Promise((res, rej) => {
-          const r = db.transaction(store).objectStore(store).getAll();
-          r.onsuccess = () => res(r.result as T[]);
-          r.onerror = () => rej(r.error);
-        });
-      const sources = await all<{ id: number; projectId: number; kind: string }>('sources');
-      const footage = sources.find((s) => s.kind === 'footage')!;
-      const events = sources.find((s) => s.kind === 'events')!;
-      const tx = db.transaction(['clockFits', 'pitchRegistrations'], 'readwrite');
-      const now = Date.now();
-      tx.objectStore('clockFits').add({ projectId: footage.projectId, sourceId: footage.id, fit: rows.footageFit, createdAt: now });
-      tx.objectStore('clockFits').add({ projectId: events.projectId, sourceId: events.id, fit: rows.eventFit, createdAt: now });
-      tx.objectStore('pitchRegistrations').add({ projectId: footage.projectId, footageSourceId: footage.id, data: rows.registration, updatedAt: now });
-      await new Promise((res, rej) => ((tx.oncomplete = res), (tx.onerror = () => rej(tx.error))));
-      db.close();
-    }, rows);
+    await storeDemoRows(page, await demoProject(page), rows);
 
     await page.keyboard.press('Alt+5');
     await page.getByRole('heading', { name: 'Reels', exact: true, level: 1 }).waitFor();

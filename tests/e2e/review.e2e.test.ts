@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { trackingToFootage } from '../../engine/fit/footage-map.ts';
 import { truthFootageFit } from '../demo-truth-rows.ts';
 import { DEMO_DIR, shot, startApp, type RunningApp } from './harness.ts';
+import { demoProject, readStore, storeDemoRows } from './setup-rows.ts';
 
 const usingDemo = DEMO_DIR.endsWith('fixtures/demo');
 
@@ -19,23 +20,6 @@ afterAll(async () => {
   await app?.close();
 });
 
-/** All rows of one object store of the app's IndexedDB, read in the page. */
-async function rowsOf<T>(page: Page, store: string): Promise<T[]> {
-  return page.evaluate(async (store) => {
-    const db: IDBDatabase = await new Promise((res, rej) => {
-      const r = indexedDB.open('whistlemark');
-      r.onsuccess = () => res(r.result);
-      r.onerror = () => rej(r.error);
-    });
-    const out = await new Promise<unknown[]>((res, rej) => {
-      const r = db.transaction(store).objectStore(store).getAll();
-      r.onsuccess = () => res(r.result);
-      r.onerror = () => rej(r.error);
-    });
-    db.close();
-    return out;
-  }, store) as Promise<T[]>;
-}
 
 interface Corr { id: number; eventId: string; status: string; proposal: { trackingTime: number; predictedTime: number; x?: number; y?: number }; edited?: { t: number } }
 interface Ev { eventId: string; logged: { t: number; x?: number }; current: { t: number; x?: number } }
@@ -83,7 +67,7 @@ describe('Review on the demo match', () => {
     await page.waitForFunction(() => /7 frames/.test(document.querySelector('.review-message')?.textContent ?? '') || true);
     const waitEdited = async (frames: number) => {
       for (let k = 0; k < 100; k++) {
-        const c = (await rowsOf<Corr>(page, 'corrections')).find((r) => r.eventId === third)!;
+        const c = (await readStore<Corr>(page, 'corrections')).find((r) => r.eventId === third)!;
         if (c.edited && Math.abs(c.edited.t - (Math.round(c.proposal.trackingTime * rate) + frames) / rate) < 1e-9) return c;
         await page.waitForTimeout(50);
       }
@@ -94,8 +78,8 @@ describe('Review on the demo match', () => {
     const edited = await waitEdited(2);
     await shot(page, 'review-edited');
 
-    const corr = await rowsOf<Corr>(page, 'corrections');
-    const events = await rowsOf<Ev>(page, 'events');
+    const corr = await readStore<Corr>(page, 'corrections');
+    const events = await readStore<Ev>(page, 'events');
     const byId = (id: string) => ({ c: corr.find((r) => r.eventId === id)!, e: events.find((r) => r.eventId === id)! });
     const a = byId(first), r = byId(second), ed = byId(third);
     expect(a.c.status).toBe('accepted');
@@ -111,7 +95,7 @@ describe('Review on the demo match', () => {
     await page.reload();
     await page.getByTestId('review-detail').waitFor({ timeout: 60_000 });
     expect(await counts(page)).toEqual(before);
-    const again = await rowsOf<Corr>(page, 'corrections');
+    const again = await readStore<Corr>(page, 'corrections');
     expect(again.map((c) => [c.eventId, c.status, c.edited?.t])).toEqual(corr.map((c) => [c.eventId, c.status, c.edited?.t]));
     // Undo still works after the reload: the edit goes back one more step (+2 -> +1 frame).
     await page.keyboard.press('Control+z');
@@ -155,28 +139,13 @@ describe('Review on the demo match', () => {
   it.runIf(usingDemo)('cues the footage at the moment under review when a footage fit exists', async () => {
     const { page } = app;
     const fit = truthFootageFit(); // the fit the Sync screen would make, from truth (tests/demo-truth-rows.ts)
-    await page.evaluate(async (fit) => {
-      const db: IDBDatabase = await new Promise((res, rej) => {
-        const r = indexedDB.open('whistlemark');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      const sources = await new Promise<{ id: number; projectId: number; kind: string }[]>((res) => {
-        const r = db.transaction('sources').objectStore('sources').getAll();
-        r.onsuccess = () => res(r.result);
-      });
-      const footage = sources.find((s) => s.kind === 'footage')!;
-      const tx = db.transaction(['clockFits'], 'readwrite');
-      tx.objectStore('clockFits').add({ projectId: footage.projectId, sourceId: footage.id, fit, createdAt: Date.now() });
-      await new Promise((res) => (tx.oncomplete = res));
-      db.close();
-    }, fit);
+    await storeDemoRows(page, await demoProject(page), { footageFit: fit });
     // Written past Dexie, so the page sees it after a reload.
     await page.reload();
     await page.getByTestId('review-footage').waitFor({ timeout: 30_000 });
     // The one selected; its proposed moment through the fit gives the footage frame to expect.
     const id = await selectedEventId(page);
-    const c = (await rowsOf<Corr & { proposal: { trackingPeriod: number } }>(page, 'corrections')).find((r) => r.eventId === id)!;
+    const c = (await readStore<Corr & { proposal: { trackingPeriod: number } }>(page, 'corrections')).find((r) => r.eventId === id)!;
     const t = c.edited?.t ?? c.proposal.trackingTime;
     const tf = trackingToFootage(fit, c.proposal.trackingPeriod, t, 1)!;
     await page.waitForFunction(() => document.querySelector('[data-testid="review-footage"]')?.getAttribute('data-frame') !== '', undefined, { timeout: 30_000 });

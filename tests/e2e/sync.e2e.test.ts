@@ -13,31 +13,19 @@ import { footageToTracking } from '../../engine/fit/footage-map.ts';
 import type { ClockFit } from '../../shared-types/index.ts';
 import { demoTruth, FPS, firstFrameAfter, truthAnchors } from '../unit/footage-sync/demo-case.ts';
 import { shot, startApp, type RunningApp } from './harness.ts';
+import { readStores } from './setup-rows.ts';
 
 interface Stored { fits: ClockFit[]; footageAnchors: { kind: string; t: number; paired: boolean }[]; tracking: number }
 async function stored(page: Page): Promise<Stored> {
-  return page.evaluate(
-    () =>
-      new Promise<Stored>((resolve, reject) => {
-        const open = indexedDB.open('whistlemark');
-        open.onerror = () => reject(open.error);
-        open.onsuccess = () => {
-          const db = open.result;
-          const tx = db.transaction(['anchors', 'clockFits'], 'readonly');
-          const a = tx.objectStore('anchors').getAll();
-          const f = tx.objectStore('clockFits').getAll();
-          tx.oncomplete = () => {
-            const anchors = a.result as { anchor: { source: string; kind: string; t: number }; pairedAnchorId?: string }[];
-            resolve({
-              fits: (f.result as { fit: ClockFit }[]).map((r) => r.fit).filter((x) => x.source === 'footage'),
-              footageAnchors: anchors.filter((r) => r.anchor.source === 'footage').map((r) => ({ kind: r.anchor.kind, t: r.anchor.t, paired: !!r.pairedAnchorId })),
-              tracking: anchors.filter((r) => r.anchor.source === 'tracking').length,
-            });
-            db.close();
-          };
-        };
-      }),
-  );
+  const { anchors, clockFits } = (await readStores(page, ['anchors', 'clockFits'])) as {
+    anchors: { anchor: { source: string; kind: string; t: number }; pairedAnchorId?: string }[];
+    clockFits: { fit: ClockFit }[];
+  };
+  return {
+    fits: clockFits.map((r) => r.fit).filter((x) => x.source === 'footage'),
+    footageAnchors: anchors.filter((r) => r.anchor.source === 'footage').map((r) => ({ kind: r.anchor.kind, t: r.anchor.t, paired: !!r.pairedAnchorId })),
+    tracking: anchors.filter((r) => r.anchor.source === 'tracking').length,
+  };
 }
 
 async function goToFrame(page: Page, frame: number) {

@@ -15,6 +15,7 @@ import { sampleAt, simulateMatch, type Truth } from '../../fixtures/sim/index.ts
 import { deltaE76, simulate, type Rgb } from '../unit/overlay/colour-vision.ts';
 import { DEMO_DIR, ROOT, SHOTS, shot, startApp, type RunningApp } from './harness.ts';
 import { truthFootageFit } from '../demo-truth-rows.ts';
+import { demoProject, storeDemoRows } from './setup-rows.ts';
 
 const truth = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth.json'), 'utf8')) as Truth;
 const truthH = JSON.parse(readFileSync(join(ROOT, 'fixtures/demo/truth-homography.json'), 'utf8')) as { frames: number[][]; width: number; height: number };
@@ -30,34 +31,7 @@ function project(h: number[], x: number, y: number): [number, number] {
 
 /** Writes the fit row and the confirmed non-live rows straight into the app's IndexedDB. */
 async function writeFitAndNonLive(page: Page) {
-  const fit = truthFootageFit();
-  const nonLive = truth.nonLive!;
-  await page.evaluate(
-    async ({ fit, nonLive }) => {
-      const db: IDBDatabase = await new Promise((res, rej) => {
-        const r = indexedDB.open('whistlemark');
-        r.onsuccess = () => res(r.result);
-        r.onerror = () => rej(r.error);
-      });
-      const all = <T,>(store: string): Promise<T[]> =>
-        new Promise((res, rej) => {
-          const r = db.transaction(store).objectStore(store).getAll();
-          r.onsuccess = () => res(r.result as T[]);
-          r.onerror = () => rej(r.error);
-        });
-      const sources = await all<{ id: number; projectId: number; kind: string }>('sources');
-      const footage = sources.find((s) => s.kind === 'footage')!;
-      const tx = db.transaction(['clockFits', 'nonLive'], 'readwrite');
-      tx.objectStore('clockFits').add({ projectId: footage.projectId, sourceId: footage.id, fit, createdAt: Date.now() });
-      for (const n of nonLive) tx.objectStore('nonLive').add({ projectId: footage.projectId, footageSourceId: footage.id, fromT: n.fromT, toT: n.toT, kind: n.kind, status: 'confirmed' });
-      await new Promise((res, rej) => {
-        tx.oncomplete = res;
-        tx.onerror = () => rej(tx.error);
-      });
-      db.close();
-    },
-    { fit, nonLive },
-  );
+  await storeDemoRows(page, await demoProject(page), { footageFit: truthFootageFit(), nonLive: truth.nonLive! });
 }
 
 const world = simulateMatch(DEMO_SIM);
