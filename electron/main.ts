@@ -153,6 +153,8 @@ function createWindow(): void {
 lockDown();
 registerIpc();
 app.on('window-all-closed', () => app.quit());
+// A native clip export still running: stop its ffmpeg and remove its temporary file.
+app.on('will-quit', () => void service.exports.cancelAll());
 void app.whenReady().then(() => {
   Menu.setApplicationMenu(null);
   protocol.handle(APP_SCHEME, serveApp);

@@ -51,6 +51,9 @@ export const SAVE_HEADER = 'x-whistlemark-save';
 const MAX_JSON_BODY = 1 << 20;
 /** saveFile bodies are held in memory before the atomic write; cap them. */
 const MAX_SAVE_BODY = 1 << 30;
+/** nativeClipFrames: the session id header, and a cap on one batch of overlay frames. */
+export const SESSION_HEADER = 'x-whistlemark-session';
+const MAX_FRAME_BATCH = 256 << 20;
 
 class HttpError extends Error {
   constructor(
@@ -207,6 +210,19 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
       }
       const bytes = new Uint8Array(Buffer.concat(chunks));
       value = await service.api.saveFile(validateArgs('saveFile', [{ ...m.data, bytes }])[0]);
+    } else if (call === 'nativeClipFrames') {
+      const sessionId = req.headers[SESSION_HEADER];
+      const chunks: Buffer[] = [];
+      let size = 0;
+      for await (const chunk of req as AsyncIterable<Buffer>) {
+        size += chunk.length;
+        if (size > MAX_FRAME_BATCH) throw new HttpError(413, `nativeClipFrames: more than ${MAX_FRAME_BATCH >> 20} MB in one batch; send fewer frames per call`);
+        chunks.push(chunk);
+      }
+      // Buffer.concat gives a fresh, 4-byte-aligned buffer: the frames are read as 32-bit words.
+      const body = Buffer.concat(chunks);
+      const batch = new Uint8Array(body.buffer, body.byteOffset, body.byteLength);
+      value = await service.api.nativeClipFrames(...validateArgs('nativeClipFrames', [sessionId, batch]));
     } else {
       const args = validateArgs(call, await readJsonBody(req));
       value = await (service.api[call] as (...a: unknown[]) => Promise<unknown>)(...args);
@@ -289,6 +305,7 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
     token,
     close: () =>
       new Promise<void>((resolveClose) => {
+        void service.exports.cancelAll();
         server.closeAllConnections();
         server.close(() => resolveClose());
       }),

@@ -19,6 +19,8 @@ export interface HostInfo {
   nativeDialogs: boolean;
   /** Whether the page is cross-origin isolated (needed by the multi-thread ffmpeg core). */
   crossOriginIsolated?: boolean;
+  /** A native ffmpeg is on PATH: clip export can take the faster native path (nativeClip* calls). */
+  nativeFfmpeg?: boolean;
 }
 
 /** A file the analyst opened; the host serves its bytes at `url` (byte ranges supported). */
@@ -83,6 +85,35 @@ export interface SaveResult {
   bytesWritten: number;
 }
 
+/**
+ * One clip for the native export path: the host's ffmpeg decodes and encodes the footage
+ * span, and lays over it the overlay frames the renderer sends (run-encoded,
+ * engine/overlay-frames/runs.ts): `cardFrames` title-card frames first, then one per clip frame.
+ */
+export interface NativeClipStart {
+  fileId: string;
+  /** Footage seconds of the in-frame (its PTS). */
+  inT: number;
+  /** Clip frames (out-frame − in-frame), not counting the card. */
+  frames: number;
+  fps: number;
+  width: number;
+  height: number;
+  cardFrames?: number;
+  /** false: no overlay frames follow (plain re-encode). */
+  overlay: boolean;
+  directory: string;
+  name: string;
+  overwrite?: boolean;
+}
+
+export interface NativeClipProgress {
+  sessionId: string;
+  /** Pictures the encoder has written so far, of `totalFrames` (card included). */
+  encodedFrames: number;
+  totalFrames: number;
+}
+
 export interface HostApi {
   info(): Promise<HostInfo>;
   /** Native dialog (Electron only). Resolves to [] when the analyst cancels. */
@@ -99,6 +130,14 @@ export interface HostApi {
   playableFootage(fileId: string): Promise<PlayableFootage>;
   /** Atomic write (temporary file, flush, rename); never overwrites without `overwrite`. */
   saveFile(req: SaveRequest): Promise<SaveResult>;
+  /** Starts a native clip export (see NativeClipStart); fails when info().nativeFfmpeg is false. */
+  nativeClipStart(req: NativeClipStart): Promise<NativeClipProgress>;
+  /** Hands over a batch of overlay frames; resolves when the host has room for more. */
+  nativeClipFrames(sessionId: string, batch: Uint8Array): Promise<NativeClipProgress>;
+  /** All frames sent: waits for the encoder and gives the file its name (never overwriting unasked). */
+  nativeClipFinish(sessionId: string): Promise<SaveResult>;
+  /** Stops the export; nothing is left in the folder. */
+  nativeClipCancel(sessionId: string): Promise<void>;
 }
 
 /** Names of the HostApi calls, used by both adapters to route and validate. */
@@ -111,5 +150,9 @@ export const HOST_CALLS = [
   'probeFootage',
   'playableFootage',
   'saveFile',
+  'nativeClipStart',
+  'nativeClipFrames',
+  'nativeClipFinish',
+  'nativeClipCancel',
 ] as const satisfies readonly (keyof HostApi)[];
 export type HostCall = (typeof HOST_CALLS)[number];

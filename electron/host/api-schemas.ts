@@ -21,6 +21,23 @@ export const saveRequestSchema = z.strictObject({
 /** The save request without its bytes: browser mode sends those as the raw body. */
 export const saveMetaSchema = saveRequestSchema.omit({ bytes: true });
 
+const sessionId = z.string().regex(/^[A-Za-z0-9_-]{8,64}$/, 'is not an export session id handed out by the host');
+const positive = z.number().finite().positive();
+
+export const nativeClipStartSchema = z.strictObject({
+  fileId,
+  inT: z.number().finite().min(0),
+  frames: z.number().int().positive().max(10_000_000),
+  fps: positive.max(1000),
+  width: z.number().int().positive().max(8192),
+  height: z.number().int().positive().max(8192),
+  cardFrames: z.number().int().min(0).max(100_000).optional(),
+  overlay: z.boolean(),
+  directory: path,
+  name: z.string().min(1).max(255),
+  overwrite: z.boolean().optional(),
+});
+
 export const HOST_ARG_SCHEMAS = {
   info: z.tuple([]),
   chooseFiles: z.tuple([purpose, z.boolean()]),
@@ -30,6 +47,10 @@ export const HOST_ARG_SCHEMAS = {
   probeFootage: z.tuple([fileId]),
   playableFootage: z.tuple([fileId]),
   saveFile: z.tuple([saveRequestSchema]),
+  nativeClipStart: z.tuple([nativeClipStartSchema]),
+  nativeClipFrames: z.tuple([sessionId, z.instanceof(Uint8Array)]),
+  nativeClipFinish: z.tuple([sessionId]),
+  nativeClipCancel: z.tuple([sessionId]),
 } satisfies Record<HostCall, z.ZodType>;
 
 export type HostArgs<C extends HostCall> = Parameters<HostApi[C]>;

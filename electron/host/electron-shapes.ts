@@ -47,7 +47,7 @@ export interface DialogFilter {
 export interface ElectronMainLike {
   app: {
     whenReady(): Promise<void>;
-    on(event: 'window-all-closed' | 'activate', listener: () => void): void;
+    on(event: 'window-all-closed' | 'activate' | 'will-quit', listener: () => void): void;
     on(event: 'web-contents-created', listener: (event: unknown, contents: WebContentsLike) => void): void;
     quit(): void;
     getVersion(): string;

@@ -14,6 +14,8 @@ import { listDirectory } from './directory.ts';
 import { playableCopy } from './footage/playable.ts';
 import { probeFootageFile } from './footage/probe.ts';
 import { OpenedFiles } from './opened-files.ts';
+import { findNativeFfmpeg } from './audio/decode-native.ts';
+import { NativeSessions } from './export/native-sessions.ts';
 
 export interface HostServiceOptions {
   mode: HostMode;
@@ -37,6 +39,8 @@ export interface HostServiceOptions {
 export interface HostService {
   api: HostApi;
   files: OpenedFiles;
+  /** Native clip exports in progress (cancelled when the host shuts down). */
+  exports: NativeSessions;
 }
 
 let packageVersion: Promise<string> | undefined;
@@ -61,6 +65,7 @@ export function createHostService(opts: HostServiceOptions): HostService {
   const probes = new Map<string, { mtimeMs: number; size: number; probe: Promise<FootageProbe> }>();
   let lastSaveDirectory: string | undefined;
   const playables = new Map<string, Promise<PlayableFootage>>();
+  const exports = new NativeSessions();
 
   const api: HostApi = {
     async info(): Promise<HostInfo> {
@@ -70,6 +75,7 @@ export function createHostService(opts: HostServiceOptions): HostService {
         userName: localUserName(),
         nativeDialogs: Boolean(opts.pickPaths),
         crossOriginIsolated: opts.crossOriginIsolated,
+        nativeFfmpeg: findNativeFfmpeg() !== null,
       };
     },
 
@@ -138,6 +144,16 @@ export function createHostService(opts: HostServiceOptions): HostService {
       lastSaveDirectory = dirname(result.path);
       return result;
     },
+
+    async nativeClipStart(req) {
+      const file = files.get(req.fileId);
+      if (!file) throw new Error(`nativeClipStart: no opened file has id ${req.fileId}; open the footage first`);
+      if (!findNativeFfmpeg()) throw new Error('nativeClipStart: no native ffmpeg on PATH; export with the embedded path instead');
+      return exports.start(file.path, req);
+    },
+    nativeClipFrames: (sessionId, batch) => exports.frames(sessionId, batch),
+    nativeClipFinish: (sessionId) => exports.finish(sessionId),
+    nativeClipCancel: (sessionId) => exports.cancel(sessionId),
   };
-  return { api, files };
+  return { api, files, exports };
 }
