@@ -36,6 +36,7 @@ import { build } from 'esbuild';
 import { launchLocalChromium } from '../build/local-chromium.ts';
 import { probeFootageFile } from '../electron/host/footage/probe.ts';
 import { exportClipNative } from '../electron/host/export/native-export.ts';
+import { runNativeInPlainChromium } from './native-export-runner.ts';
 import { LAYER_IDS } from '../renderer/src/overlay/contract.ts';
 import { truth, truthEventFit, truthFootageFit, truthRegistration, trueToFootage } from '../tests/demo-truth-rows.ts';
 
@@ -46,29 +47,6 @@ const SIZES = [
   { name: '720p', width: 1280, height: 720 },
   { name: '1080p', width: 1920, height: 1080 },
 ];
-
-/** A queue of POSTed frames that ffmpeg's stdin reads as an async iterable. */
-class FrameQueue {
-  private items: Uint8Array[] = [];
-  private wake: (() => void) | null = null;
-  private ended = false;
-  push(b: Uint8Array) {
-    this.items.push(b);
-    this.wake?.();
-  }
-  end() {
-    this.ended = true;
-    this.wake?.();
-  }
-  async *[Symbol.asyncIterator]() {
-    for (;;) {
-      if (this.items.length) yield this.items.shift()!;
-      else if (this.ended) return;
-      else await new Promise<void>((r) => (this.wake = r));
-      this.wake = null;
-    }
-  }
-}
 
 async function ffmpegWasmPlain(file: string, inT: number, width: number, height: number): Promise<number> {
   const require = createRequire(import.meta.url);
@@ -91,20 +69,8 @@ async function main() {
   await build({ entryPoints: [join(ROOT, 'tests/host/export-embedded-entry.ts')], bundle: true, format: 'esm', outfile: join(site, 'entry.js'), logLevel: 'error' });
   writeFileSync(join(site, 'index.html'), '<!doctype html><meta charset="utf-8"><script type="module" src="entry.js"></script>');
   const media: Record<string, Buffer> = { '/demo.mp4': readFileSync(join(DEMO, 'footage.mp4')), '/tracking.csv': readFileSync(join(DEMO, 'tracking.csv')) };
-  const queues = new Map<string, FrameQueue>();
   const server = createServer((req, res) => {
     const url = new URL(req.url ?? '/', 'http://x');
-    if (req.method === 'POST' && url.pathname.startsWith('/frame/')) {
-      const q = queues.get(url.pathname.slice(7));
-      const chunks: Buffer[] = [];
-      req.on('data', (c: Buffer) => chunks.push(c));
-      req.on('end', () => {
-        if (url.searchParams.get('end')) q?.end();
-        else q?.push(new Uint8Array(Buffer.concat(chunks)));
-        res.writeHead(204).end();
-      });
-      return;
-    }
     const body = media[url.pathname] ?? (url.pathname === '/' ? readFileSync(join(site, 'index.html')) : url.pathname === '/entry.js' ? readFileSync(join(site, 'entry.js')) : undefined);
     if (!body) return res.writeHead(404).end();
     res.writeHead(200, { 'content-type': url.pathname.endsWith('.js') ? 'text/javascript' : url.pathname.endsWith('.mp4') ? 'video/mp4' : 'text/html' }).end(body);
@@ -126,6 +92,7 @@ async function main() {
   const layers = [...LAYER_IDS];
   const plan = { title: 'Corner', layers, footage: { inFrame, outFrame: inFrame + frames, inT: probe.pts[inFrame], outT: probe.pts[inFrame + frames] } };
   await page.evaluate(() => (window as any).wm.loadTracking('/tracking.csv'));
+  const nativeSeconds = await runNativeInPlainChromium(scratch, { o, plan: { ...plan, index: 0, period: 1, matchClock: { in: '', out: '' }, note: '' }, pts: probe.pts, sizes: SIZES, card: false });
 
   const rows: string[][] = [];
   const header = ['size', 'path', 'seconds', '× realtime', 'note'];
@@ -151,18 +118,8 @@ async function main() {
     );
     rows.push([size.name, 'embedded (WebCodecs + mediabunny)', emb.s.toFixed(2), (SPAN_S / emb.s).toFixed(2), `${(emb.bytes / 1e6).toFixed(1)} MB, overlay ${emb.backend}`]);
 
-    // Native: renderer draws + streams, ffmpeg composes and encodes.
-    const id = `n${size.name}`;
-    const q = new FrameQueue();
-    queues.set(id, q);
-    const t0 = performance.now();
-    const [drawMs] = await Promise.all([
-      page.evaluate((a) => (window as any).wm.streamOverlayFrames(a), { o, pts: probe.pts, inFrame, frames, width: size.width, height: size.height, layers, post: `${base}/frame/${id}` }),
-      exportClipNative({ input: join(DEMO, 'footage.mp4'), inT: probe.pts[inFrame], frames, fps: 25, width: size.width, height: size.height, overlay: q, directory: scratch, name: `native-${size.name}.mp4`, overwrite: true }),
-    ]);
-    const native = (performance.now() - t0) / 1000;
-    rows.push([size.name, 'native (renderer frames -> ffmpeg overlay)', native.toFixed(2), (SPAN_S / native).toFixed(2), `drawing + readback ${(drawMs / frames).toFixed(1)} ms/frame`]);
-
+    const native = nativeSeconds[size.name];
+    rows.push([size.name, 'native (renderer overlay runs -> ffmpeg pipe)', native.toFixed(2), (SPAN_S / native).toFixed(2), `overlay ${nativeSeconds[size.name + ' backend']}; ${nativeSeconds[size.name + ' stages']}`]);
     const t1 = performance.now();
     await exportClipNative({ input: join(DEMO, 'footage.mp4'), inT: probe.pts[inFrame], frames, fps: 25, width: size.width, height: size.height, directory: scratch, name: `plain-${size.name}.mp4`, overwrite: true });
     const plain = (performance.now() - t1) / 1000;

@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { probeFootageFile } from '../../electron/host/footage/probe.ts';
 import { exportClipNative } from '../../electron/host/export/native-export.ts';
+import { encodeRuns } from '../../engine/overlay-frames/index.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 const REF = join(ROOT, 'fixtures/reference/cfr25.mp4');
@@ -27,11 +28,12 @@ function counterDiff(a: Buffer, b: Buffer, width: number): number {
   return s / k;
 }
 
-/** Transparent RGBA frames with an opaque red square at (200..220, 100..120). */
+/** Transparent overlay frames (run-encoded) with an opaque red square at (200..220, 100..120). */
 async function* squares(n: number, w: number, h: number) {
   const f = new Uint8Array(w * h * 4);
   for (let y = 100; y < 120; y++) for (let x = 200; x < 220; x++) f.set([255, 0, 0, 255], (y * w + x) * 4);
-  for (let i = 0; i < n; i++) yield f;
+  const words = encodeRuns(f, w, h);
+  for (let i = 0; i < n; i++) yield words;
 }
 
 describe('native export (ffmpeg on PATH)', () => {

@@ -20,6 +20,9 @@ import { ExportCancelled, exportClipEmbedded } from './embedded.ts';
 import { planClip, PlanError, type ClipPlan, type PlanInputs } from './plan.ts';
 import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
 import { joinClips } from './concat.ts';
+import { fetchFile } from '../host/index.ts';
+import { exportClipNativeFromRenderer, nativeOverlayCanvas } from './native.ts';
+import { titleCardFor, type TitleCard } from './title-card.ts';
 
 export interface ExportContext {
   inputs: PlanInputs;
@@ -29,6 +32,10 @@ export interface ExportContext {
   eventFit?: ClockFit;
   footageUrl: string;
   footageName: string;
+  /** The opened footage's id, for the native path (the host reads the file itself). */
+  footageFileId: string;
+  /** Nominal frame rate (the native encoder's input rate, the title card's frame count). */
+  fps: number;
   size: { width: number; height: number };
 }
 
@@ -63,6 +70,8 @@ export async function loadExportContext(db: WhistlemarkDb, host: HostApi, projec
     ...(eventFit ? { eventFit } : {}),
     footageUrl: opened.url,
     footageName: footageSource.fileName,
+    footageFileId: opened.fileId,
+    fps: footage.probe.nominalFps,
     size: { width: footage.probe.width, height: footage.probe.height },
   };
 }
@@ -102,11 +111,28 @@ export interface QueueRequest {
   clipIds: number[];
   directory: string;
   overwrite?: boolean;
+  /** 'native': the host's ffmpeg encodes (faster; needs ffmpeg on PATH). Default 'embedded'. */
+  path?: 'embedded' | 'native';
+  /** Seconds of title card before each clip; 0 or absent: none. */
+  titleCardS?: number;
 }
 
 export async function queueExport(db: WhistlemarkDb, req: QueueRequest): Promise<number> {
   const now = Date.now();
-  const row: ExportJobRow = { projectId: req.projectId, reelId: req.reelId, clipIds: req.clipIds, state: 'queued', directory: req.directory, path: 'embedded', progress: 0, outputs: [], createdAt: now, updatedAt: now, ...(req.overwrite ? { overwrite: true } : {}) };
+  const row: ExportJobRow = {
+    projectId: req.projectId,
+    reelId: req.reelId,
+    clipIds: req.clipIds,
+    state: 'queued',
+    directory: req.directory,
+    path: req.path ?? 'embedded',
+    progress: 0,
+    outputs: [],
+    createdAt: now,
+    updatedAt: now,
+    ...(req.overwrite ? { overwrite: true } : {}),
+    ...(req.titleCardS ? { titleCardS: req.titleCardS } : {}),
+  };
   return (await db.exportJobs.add(row)) as number;
 }
 
@@ -164,7 +190,11 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
     let carriedS = 0; // clips finished before a restart: not part of this run's pace
     const t0 = performance.now();
     const encoded: Uint8Array[] = [];
-    const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true }) : undefined;
+    const native = job.path === 'native';
+    if (native && !(await host.info()).nativeFfmpeg) throw new Error('this job asks for the native ffmpeg path, but no ffmpeg is on PATH any more; export again with the built-in encoder');
+    const canvas = native ? nativeOverlayCanvas(ctx.size.width, ctx.size.height) : undefined;
+    const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true, ...(canvas ? { canvas } : {}) }) : undefined;
+    const cardS = job.titleCardS ?? 0;
     try {
       for (let i = 0; i < plans.length; i++) {
         const p = plans[i];
@@ -175,25 +205,47 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
           carriedS += p.durationS;
           continue; // finished before a restart
         }
-        const bytes = await exportClipEmbedded({
-          source: ctx.footageUrl,
-          plan: p,
-          pts: ctx.inputs.probe.pts,
-          ...(ctx.overlay && renderer ? { overlay: { data: ctx.overlay, settings: ctx.settings, renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } } : {}),
-          ...ctx.size,
-          ...(signal ? { signal } : {}),
-          onProgress: (f) => {
-            const frac = total > 0 ? (doneS + f * p.durationS) / total : 0;
-            const thisRun = total > 0 ? (doneS - carriedS + f * p.durationS) / total : 0;
-            const spent = (performance.now() - t0) / 1000;
-            hooks.onProgress?.(id, frac, thisRun > 0.02 ? (spent / thisRun) * (1 - frac) : undefined, n.mp4);
-          },
-        });
-        if (signal?.aborted) throw new ExportCancelled();
-        await host.saveFile({ suggestedName: n.mp4, directory: job.directory, bytes, overwrite: !!job.overwrite });
-        await host.saveFile({ suggestedName: n.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt([{ ...p }], { titleCardS: 0 })), overwrite: !!job.overwrite });
+        const overlay = ctx.overlay && renderer ? { data: ctx.overlay, settings: ctx.settings, renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } : undefined;
+        const titleCard: TitleCard | undefined = cardS > 0 ? titleCardFor(p, { reelTitle: reel.title, count: plans.length, seconds: cardS }) : undefined;
+        const onProgress = (f: number) => {
+          const frac = total > 0 ? (doneS + f * p.durationS) / total : 0;
+          const thisRun = total > 0 ? (doneS - carriedS + f * p.durationS) / total : 0;
+          const spent = (performance.now() - t0) / 1000;
+          hooks.onProgress?.(id, frac, thisRun > 0.02 ? (spent / thisRun) * (1 - frac) : undefined, n.mp4);
+        };
+        if (native) {
+          await exportClipNativeFromRenderer(host, {
+            fileId: ctx.footageFileId,
+            plan: p,
+            pts: ctx.inputs.probe.pts,
+            fps: ctx.fps,
+            ...(overlay ? { overlay } : {}),
+            ...ctx.size,
+            ...(canvas ? { canvas } : {}),
+            ...(titleCard ? { titleCard } : {}),
+            directory: job.directory,
+            name: n.mp4,
+            overwrite: !!job.overwrite,
+            ...(signal ? { signal } : {}),
+            onProgress,
+          });
+        } else {
+          const bytes = await exportClipEmbedded({
+            source: ctx.footageUrl,
+            plan: p,
+            pts: ctx.inputs.probe.pts,
+            ...(overlay ? { overlay } : {}),
+            ...ctx.size,
+            ...(titleCard ? { titleCard } : {}),
+            ...(signal ? { signal } : {}),
+            onProgress,
+          });
+          if (signal?.aborted) throw new ExportCancelled();
+          await host.saveFile({ suggestedName: n.mp4, directory: job.directory, bytes, overwrite: !!job.overwrite });
+          encoded.push(bytes);
+        }
+        await host.saveFile({ suggestedName: n.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt([{ ...p }], { titleCardS: cardS })), overwrite: !!job.overwrite });
         outputs.push(n.mp4, n.vtt);
-        encoded.push(bytes);
         doneS += p.durationS;
         await set({ outputs: [...outputs], progress: total > 0 ? doneS / total : 1 });
       }
@@ -207,16 +259,16 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
       if (resumed) reelNote = '; the whole-reel file was left out after the resume (export again for it)';
       else {
         try {
-          const reelBytes = await joinClips(encoded);
+          const reelBytes = await joinClips(native ? await readBack(host, job.directory, names.clip.map((c) => c.mp4)) : encoded);
           await host.saveFile({ suggestedName: names.reel.mp4, directory: job.directory, bytes: reelBytes, overwrite: !!job.overwrite });
-          await host.saveFile({ suggestedName: names.reel.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt(plans, { titleCardS: 0 })), overwrite: !!job.overwrite });
+          await host.saveFile({ suggestedName: names.reel.vtt, directory: job.directory, bytes: new TextEncoder().encode(sidecarVtt(plans, { titleCardS: cardS })), overwrite: !!job.overwrite });
           outputs.push(names.reel.mp4, names.reel.vtt);
         } catch (e) {
           reelNote = `; no whole-reel file: ${(e as Error).message}`;
         }
       }
     }
-    const side = reelSidecars(reel.title, plans, { titleCardS: 0, footageFile: ctx.footageName });
+    const side = reelSidecars(reel.title, plans, { titleCardS: cardS, footageFile: ctx.footageName });
     for (const [name, text] of [
       [names.csv, side.csv],
       [names.json, side.json],
@@ -230,4 +282,11 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
     const cancelled = e instanceof ExportCancelled || signal?.aborted;
     await set({ state: cancelled ? 'cancelled' : 'failed', outputs, message: cancelled ? 'cancelled; the clip being encoded was not written' : (e as Error).message });
   }
+}
+
+/** The clip files the host's ffmpeg wrote, read back for the whole-reel join. */
+async function readBack(host: HostApi, directory: string, names: string[]): Promise<Uint8Array[]> {
+  const sep = directory.includes('\\') && !directory.includes('/') ? '\\' : '/';
+  const files = await host.openPaths(names.map((n) => `${directory.replace(/[\\/]+$/, '')}${sep}${n}`));
+  return Promise.all(files.map(async (f) => new Uint8Array(await (await fetchFile(f)).arrayBuffer())));
 }

@@ -14,6 +14,7 @@ import type { EventRow, ExportJobRow } from '../db/rows.ts';
 import { LAYER_MENU } from '../overlay/layers/index.ts';
 import { matchClockText, trackingToEventClock, type ClipPlan } from '../export-clips/plan.ts';
 import { loadExportContext, outputNames, planClips, queueExport, type ExportContext } from '../export-clips/run-export.ts';
+import { DEFAULT_TITLE_CARD_S } from '../export-clips/title-card.ts';
 import { eventToTracking, eventsMatching, kindWord, spanFromPoints, spansFromEvents, type EventFilter } from './clip-rules.ts';
 import { cancelJob, clipsLeft, startQueue, useLiveProgress, type LiveProgress } from './export-queue.ts';
 import { addClips, addReel, clipsOfReel, deleteClips, deleteReel, mergeClipsInReel, moveClip, renameReel, updateClip, type StoredClip } from './reel-actions.ts';
@@ -495,6 +496,17 @@ interface ExportProps {
   onError: (m: string) => void;
 }
 
+interface ExportOptions {
+  titleCard: boolean;
+  /** The analyst's choice; 'native' falls back to the built-in encoder when no ffmpeg is found. */
+  encoder: 'native' | 'embedded';
+}
+
+function exportOptions(v: unknown): ExportOptions {
+  const o = (v ?? {}) as Partial<ExportOptions>;
+  return { titleCard: o.titleCard === true, encoder: o.encoder === 'embedded' ? 'embedded' : 'native' };
+}
+
 function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProblem, planned, onError }: ExportProps) {
   const { db, host } = useServices();
   const folderSetting = useLive(() => db.settings.get(`exportFolder:${projectId}`).then((r) => (r?.value as string | undefined) ?? ''), [projectId]);
@@ -503,6 +515,13 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
   const live = useLiveProgress();
   const [conflict, setConflict] = useState<{ names: string[]; dir: string } | null>(null);
   const dir = folder ?? folderSetting ?? '';
+  const options = useLive(() => db.settings.get(`exportOptions:${projectId}`).then((r) => exportOptions(r?.value)), [projectId]) ?? exportOptions(undefined);
+  const setOptions = (patch: Partial<ExportOptions>) => void db.settings.put({ key: `exportOptions:${projectId}`, value: { ...options, ...patch } });
+  const [nativeAvailable, setNativeAvailable] = useState(false);
+  useEffect(() => {
+    host.info().then((i) => setNativeAvailable(!!i.nativeFfmpeg), () => setNativeAvailable(false));
+  }, [host]);
+  const encoder: 'native' | 'embedded' = nativeAvailable && options.encoder !== 'embedded' ? 'native' : 'embedded';
 
   useEffect(() => {
     if (folderSetting === '' && folder === undefined) host.listDirectory().then((l) => setFolder((f) => f ?? l.path), () => {});
@@ -534,7 +553,7 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
     const taken = all.filter((n) => listing.entries.some((e) => e.name === n));
     if (taken.length && !overwrite) return setConflict({ names: taken, dir: listing.path });
     await db.settings.put({ key: `exportFolder:${projectId}`, value: listing.path });
-    await queueExport(db, { projectId, reelId, clipIds: clips.map((c) => c.id), directory: listing.path, overwrite });
+    await queueExport(db, { projectId, reelId, clipIds: clips.map((c) => c.id), directory: listing.path, overwrite, path: encoder, ...(options.titleCard ? { titleCardS: DEFAULT_TITLE_CARD_S } : {}) });
     startQueue(db, host, projectId, onError);
   };
 
@@ -559,6 +578,20 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
         <button className="primary" disabled={!clips.length || !exportCtx} onClick={() => void start(false)}>
           Export reel ({clips.length === 1 ? '1 clip' : `${clips.length} clips`})
         </button>
+      </div>
+      <div className="reels-export-row reels-export-options">
+        <label className="check">
+          <input type="checkbox" checked={options.titleCard} onChange={(e) => setOptions({ titleCard: e.target.checked })} />
+          Title card before each clip ({DEFAULT_TITLE_CARD_S} s: title, match clock, note)
+        </label>
+        <label className="field">
+          Encoder
+          <select value={encoder} onChange={(e) => setOptions({ encoder: e.target.value as ExportOptions['encoder'] })} aria-label="Encoder" disabled={!nativeAvailable}>
+            <option value="native">ffmpeg on this machine (faster)</option>
+            <option value="embedded">built-in (nothing installed)</option>
+          </select>
+        </label>
+        {!nativeAvailable && <span className="muted small">No ffmpeg found on this machine: the built-in encoder is used.</span>}
       </div>
       {!!jobs?.length && (
         <ul className="job-list" aria-label="Export queue">
