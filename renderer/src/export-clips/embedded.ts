@@ -19,11 +19,10 @@
  */
 import { ALL_FORMATS, BlobSource, BufferTarget, Conversion, Input, Mp4OutputFormat, Output, UrlSource, type AudioSample, type VideoSample } from 'mediabunny';
 import { frameAtOrBefore } from '../../../engine/timecode/index.ts';
-import { LAYER_IDS, type LayerSelection, type OverlayData, type OverlayRenderer, type OverlaySettings } from '../overlay/contract.ts';
-import { buildOverlayScene } from '../overlay/scene.ts';
-import { matchClockText, trackingToEventClock, type ClipPlan } from './plan.ts';
+import type { OverlayData, OverlayRenderer, OverlaySettings } from '../overlay/contract.ts';
+import type { ClipPlan } from './plan.ts';
 import type { ClockFit } from '../../../shared-types/index.ts';
-import { footageToTracking } from '../../../engine/fit/footage-map.ts';
+import { overlayPainter } from './frame-overlay.ts';
 import { titleCardFrames, type TitleCard } from './title-card.ts';
 import { frameStepAt, leadIn, type LeadIn } from './lead-in.ts';
 
@@ -61,38 +60,7 @@ export class ExportCancelled extends Error {
   }
 }
 
-/** The layer selection of a clip: the listed layers on for both teams. */
-export function layerSelection(layers: string[]): LayerSelection {
-  const sel = {} as LayerSelection;
-  for (const id of LAYER_IDS) sel[id] = { home: layers.includes(id), away: layers.includes(id) };
-  return sel;
-}
-
-/** Caption and title drawn over the picture (canvas 2-D), scaled to the output height. */
-export function drawCaption(ctx: OffscreenCanvasRenderingContext2D | CanvasRenderingContext2D, w: number, h: number, clock: string | undefined, title: string | undefined): void {
-  const u = h / 720;
-  ctx.save();
-  ctx.textBaseline = 'middle';
-  if (clock) {
-    ctx.font = `600 ${Math.round(22 * u)}px system-ui, sans-serif`;
-    const tw = ctx.measureText(clock).width;
-    ctx.fillStyle = 'rgba(12,16,20,0.78)';
-    ctx.fillRect(16 * u, h - 52 * u, tw + 24 * u, 36 * u);
-    ctx.fillStyle = '#f4f4f4';
-    ctx.fillText(clock, 28 * u, h - 34 * u);
-  }
-  if (title) {
-    ctx.font = `700 ${Math.round(30 * u)}px system-ui, sans-serif`;
-    const tw = ctx.measureText(title).width;
-    ctx.fillStyle = 'rgba(12,16,20,0.82)';
-    ctx.fillRect(0, 24 * u, tw + 56 * u, 52 * u);
-    ctx.fillStyle = '#ffd27a';
-    ctx.fillRect(0, 24 * u, 8 * u, 52 * u);
-    ctx.fillStyle = '#ffffff';
-    ctx.fillText(title, 28 * u, 50 * u);
-  }
-  ctx.restore();
-}
+export { drawCaption, layerSelection } from './frame-overlay.ts';
 
 export async function exportClipEmbedded(req: EmbeddedClipRequest): Promise<Uint8Array> {
   const { plan, width, height } = req;
@@ -103,29 +71,21 @@ export async function exportClipEmbedded(req: EmbeddedClipRequest): Promise<Uint
   const canvas = new OffscreenCanvas(width, height);
   const ctx = canvas.getContext('2d')!;
   const ov = req.overlay;
-  const settings = ov ? { ...ov.settings, layers: layerSelection(plan.layers) } : undefined;
   const titleS = req.titleS ?? 2;
   const caption = req.caption ?? true;
   const start = plan.footage.inT;
   const end = plan.footage.outT;
-  const half = 0.5 / 25;
+  // Half of the last frame's length: the trim ends inside the out-frame's predecessor, never on it.
+  const lastStep = plan.footage.outFrame > 0 && plan.footage.outFrame < req.pts.length ? req.pts[plan.footage.outFrame] - req.pts[plan.footage.outFrame - 1] : 1 / 25;
+  const half = 0.5 * (lastStep > 0 ? lastStep : 1 / 25);
 
+  const paint = overlayPainter(plan, ov, { width, height, caption, titleS: req.titleCard ? 0 : titleS });
   const process = (sample: VideoSample) => {
     // Output timestamps start at the trim start; the source frame is found in the PTS table.
     const srcT = start + sample.timestamp;
     const index = Math.max(0, frameAtOrBefore(req.pts, srcT + 1e-4));
     sample.draw(ctx, 0, 0, width, height);
-    if (ov && settings) {
-      const scene = buildOverlayScene(ov.data, { index, t: req.pts[index] ?? srcT }, settings, { width, height });
-      ov.renderer.draw(scene);
-      ctx.drawImage(ov.renderer.canvas, 0, 0, width, height);
-    }
-    let clock: string | undefined;
-    if (caption) {
-      const m = ov?.data.fit ? footageToTracking(ov.data.fit, srcT) : undefined;
-      clock = m ? matchClockText(m.period, trackingToEventClock(ov?.eventFit, m.period, m.t)) : undefined;
-    }
-    drawCaption(ctx, width, height, clock, !req.titleCard && sample.timestamp < titleS ? plan.title : undefined);
+    paint(ctx, index, req.pts[index] ?? srcT, sample.timestamp);
     return canvas;
   };
 

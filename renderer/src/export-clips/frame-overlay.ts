@@ -9,8 +9,42 @@
  */
 import { footageToTracking } from '../../../engine/fit/footage-map.ts';
 import { buildOverlayScene } from '../overlay/scene.ts';
-import { drawCaption, layerSelection, type OverlayInput } from './embedded.ts';
+import { LAYER_IDS, type LayerSelection } from '../overlay/contract.ts';
+import type { OverlayInput } from './embedded.ts';
 import { matchClockText, trackingToEventClock, type ClipPlan } from './plan.ts';
+
+/** The layer selection of a clip: the listed layers on for both teams. */
+export function layerSelection(layers: string[]): LayerSelection {
+  const sel = {} as LayerSelection;
+  for (const id of LAYER_IDS) sel[id] = { home: layers.includes(id), away: layers.includes(id) };
+  return sel;
+}
+
+/** Caption and title drawn over the picture (canvas 2-D), scaled to the output height. */
+export function drawCaption(ctx: OffscreenCanvasRenderingContext2D | CanvasRenderingContext2D, w: number, h: number, clock: string | undefined, title: string | undefined): void {
+  const u = h / 720;
+  ctx.save();
+  ctx.textBaseline = 'middle';
+  if (clock) {
+    ctx.font = `600 ${Math.round(22 * u)}px system-ui, sans-serif`;
+    const tw = ctx.measureText(clock).width;
+    ctx.fillStyle = 'rgba(12,16,20,0.78)';
+    ctx.fillRect(16 * u, h - 52 * u, tw + 24 * u, 36 * u);
+    ctx.fillStyle = '#f4f4f4';
+    ctx.fillText(clock, 28 * u, h - 34 * u);
+  }
+  if (title) {
+    ctx.font = `700 ${Math.round(30 * u)}px system-ui, sans-serif`;
+    const tw = ctx.measureText(title).width;
+    ctx.fillStyle = 'rgba(12,16,20,0.82)';
+    ctx.fillRect(0, 24 * u, tw + 56 * u, 52 * u);
+    ctx.fillStyle = '#ffd27a';
+    ctx.fillRect(0, 24 * u, 8 * u, 52 * u);
+    ctx.fillStyle = '#ffffff';
+    ctx.fillText(title, 28 * u, 50 * u);
+  }
+  ctx.restore();
+}
 
 export interface PainterOptions {
   width: number;

@@ -22,7 +22,7 @@ import { fileStem, reelSidecars, sidecarVtt } from './sidecar.ts';
 import { joinClips } from './concat.ts';
 import { fetchFile } from '../host/index.ts';
 import { exportClipNativeFromRenderer, nativeOverlayCanvas } from './native.ts';
-import { titleCardFor, type TitleCard } from './title-card.ts';
+import { titleCardFor, titleCardFrames, type TitleCard } from './title-card.ts';
 
 export interface ExportContext {
   inputs: PlanInputs;
@@ -194,7 +194,8 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
     if (native && !(await host.info()).nativeFfmpeg) throw new Error('this job asks for the native ffmpeg path, but no ffmpeg is on PATH any more; export again with the built-in encoder');
     const canvas = native ? nativeOverlayCanvas(ctx.size.width, ctx.size.height) : undefined;
     const renderer = ctx.overlay ? await createOverlayRenderer({ ...ctx.size, preserveDrawingBuffer: true, ...(canvas ? { canvas } : {}) }) : undefined;
-    const cardS = job.titleCardS ?? 0;
+    // The card lasts whole frames (2.002 s at 29.97): sidecar times shift by exactly that.
+    const cardS = job.titleCardS ? titleCardFrames({ seconds: job.titleCardS } as TitleCard, ctx.fps) / ctx.fps : 0;
     try {
       for (let i = 0; i < plans.length; i++) {
         const p = plans[i];
@@ -206,7 +207,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
           continue; // finished before a restart
         }
         const overlay = ctx.overlay && renderer ? { data: ctx.overlay, settings: ctx.settings, renderer, ...(ctx.eventFit ? { eventFit: ctx.eventFit } : {}) } : undefined;
-        const titleCard: TitleCard | undefined = cardS > 0 ? titleCardFor(p, { reelTitle: reel.title, count: plans.length, seconds: cardS }) : undefined;
+        const titleCard: TitleCard | undefined = job.titleCardS ? titleCardFor(p, { reelTitle: reel.title, count: plans.length, seconds: job.titleCardS }) : undefined;
         const onProgress = (f: number) => {
           const frac = total > 0 ? (doneS + f * p.durationS) / total : 0;
           const thisRun = total > 0 ? (doneS - carriedS + f * p.durationS) / total : 0;
