@@ -11,7 +11,7 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SHOTS, shot, startApp, type RunningApp } from './harness.ts';
@@ -23,12 +23,14 @@ const { WebVTTParser } = require('webvtt-parser') as { WebVTTParser: new () => {
 
 let app: RunningApp;
 const out = mkdtempSync(join(tmpdir(), 'wm-reels-out-'));
+const out2 = mkdtempSync(join(tmpdir(), 'wm-reels-out2-'));
 beforeAll(async () => {
   app = await startApp();
 });
 afterAll(async () => {
   await app?.close();
   rmSync(out, { recursive: true, force: true });
+  rmSync(out2, { recursive: true, force: true });
 });
 
 describe('Reels screen', () => {
@@ -61,6 +63,8 @@ describe('Reels screen', () => {
     await shot(page, 'reels-01-corners');
 
     const exp = page.getByRole('region', { name: 'Export' });
+    // ffmpeg is on this machine (Debian's): the faster native path is the default.
+    await expect.poll(() => exp.getByLabel('Encoder').inputValue()).toBe('native');
     await exp.getByLabel('Export folder').fill(out);
     await exp.getByRole('button', { name: /Export reel/ }).click();
     const job = exp.getByRole('list', { name: 'Export queue' }).getByRole('listitem').first();
@@ -79,6 +83,7 @@ describe('Reels screen', () => {
         { timeout: 170_000, interval: 300 },
       )
       .toMatch(/^done/);
+    expect(await job.innerText()).toContain('ffmpeg on this machine');
     await shot(page, 'reels-03-exported');
 
     const files = readdirSync(out).sort();
@@ -103,6 +108,30 @@ describe('Reels screen', () => {
     const frame = join(SHOTS, 'reels-04-exported-frame.png');
     execFileSync('ffmpeg', ['-v', 'error', '-y', '-ss', String(sidecar.clips[0].durationS / 2), '-i', mp4, '-frames:v', '1', frame]);
     expect(existsSync(frame)).toBe(true);
+
+    // The same reel through the built-in encoder, with title cards: the card comes first,
+    // and after it the picture is the native file's picture (both paths draw the same frame).
+    await exp.getByLabel('Encoder').selectOption('embedded');
+    await exp.getByLabel(/Title card before each clip/).check();
+    await exp.getByLabel('Export folder').fill(out2);
+    await exp.getByRole('button', { name: /Export reel/ }).click();
+    const job2 = exp.getByRole('list', { name: 'Export queue' }).getByRole('listitem').first();
+    await expect.poll(async () => `${await job2.getAttribute('data-state')}: ${await job2.innerText()}`, { timeout: 240_000, interval: 500 }).toMatch(/^done.*built-in encoder, title cards/s);
+    const mp4b = join(out2, basename(mp4));
+    const infoB = JSON.parse(execFileSync('ffprobe', ['-v', 'error', '-show_format', '-of', 'json', mp4b], { encoding: 'utf8' }));
+    expect(Math.abs(Number(infoB.format.duration) - (sidecar.clips[0].durationS + 2))).toBeLessThanOrEqual(1 / 25 + 1e-6);
+    const sidecarB = JSON.parse(readFileSync(join(out2, 'corners.json'), 'utf8'));
+    expect(sidecarB.clips[0].durationS).toBe(sidecar.clips[0].durationS);
+    const gray = (file: string, t: number) => execFileSync('ffmpeg', ['-v', 'error', '-ss', t.toFixed(3), '-i', file, '-frames:v', '1', '-f', 'rawvideo', '-pix_fmt', 'gray', '-'], { maxBuffer: 1 << 24 });
+    const cardPic = gray(mp4b, 1);
+    expect(cardPic.reduce((a, v) => a + v, 0) / cardPic.length).toBeLessThan(40); // the dark card
+    execFileSync('ffmpeg', ['-v', 'error', '-y', '-ss', '1', '-i', mp4b, '-frames:v', '1', join(SHOTS, 'reels-05-title-card.png')]);
+    const mid = Math.round((sidecar.clips[0].durationS / 2) * 25) / 25 + 0.5 / 25;
+    const a = gray(mp4, mid);
+    const b = gray(mp4b, mid + 2);
+    let diff = 0;
+    for (let i = 0; i < a.length; i++) diff += Math.abs(a[i] - b[i]);
+    expect(diff / a.length).toBeLessThan(4); // two encodes of the same picture: only coding noise apart
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);
   });

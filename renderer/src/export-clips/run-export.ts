@@ -278,7 +278,7 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
       await host.saveFile({ suggestedName: name, directory: job.directory, bytes: new TextEncoder().encode(text), overwrite: !!job.overwrite });
       outputs.push(name);
     }
-    await set({ state: 'done', progress: 1, outputs: [...outputs], message: `${plans.length === 1 ? '1 clip' : `${plans.length} clips`} written to ${job.directory}${reelNote}` });
+    await set({ state: 'done', progress: 1, outputs: [...outputs], message: `${plans.length === 1 ? '1 clip' : `${plans.length} clips`} written to ${job.directory} (${native ? 'ffmpeg on this machine' : 'built-in encoder'}${cardS ? ', title cards' : ''})${reelNote}` });
   } catch (e) {
     const cancelled = e instanceof ExportCancelled || signal?.aborted;
     await set({ state: cancelled ? 'cancelled' : 'failed', outputs, message: cancelled ? 'cancelled; the clip being encoded was not written' : (e as Error).message });
