@@ -155,9 +155,17 @@ describe('native export: blend and sessions', () => {
     const probe = await probeFootageFile(REF);
     const sessions = new NativeSessions();
     const before = readdirSync(dir).sort();
-    const a = await sessions.start(REF, { fileId: 'x', inT: probe.pts[5], frames: 40, fps: 25, width: 320, height: 180, overlay: true, directory: dir, name: 'cancel-me.mp4' });
-    await sessions.frames(a.sessionId, new Uint8Array(packBatch([encodeRuns(new Uint8Array(320 * 180 * 4), 320, 180)]).buffer));
+    // Cancel while frames stream in and the encoder holds back (large pictures, long clip).
+    const demo = join(ROOT, 'fixtures/demo/footage.mp4');
+    const a = await sessions.start(demo, { fileId: 'x', inT: 40, frames: 3000, fps: 25, width: 1280, height: 720, overlay: true, directory: dir, name: 'cancel-me.mp4' });
+    const blank = new Uint8Array(packBatch(new Array(8).fill(encodeRuns(new Uint8Array(1280 * 720 * 4).fill(255, 0, 400_000), 1280, 720))).buffer);
+    let encoded = 0;
+    const feeding = (async () => {
+      for (;;) encoded = (await sessions.frames(a.sessionId, blank)).encodedFrames;
+    })().catch((e: Error) => e);
+    await expect.poll(() => encoded, { timeout: 60_000, interval: 50 }).toBeGreaterThan(16);
     await sessions.cancel(a.sessionId);
+    expect(String(await feeding)).toMatch(/cancelled|no export session/);
     const b = await sessions.start(REF, { fileId: 'x', inT: probe.pts[5], frames: 40, fps: 25, width: 320, height: 180, overlay: true, directory: dir, name: 'damaged.mp4' });
     await expect(sessions.frames(b.sessionId, new Uint8Array([1, 2, 3, 4, 5, 6, 7, 8]))).rejects.toThrow(/not a batch of overlay frames/);
     await expect(sessions.finish(b.sessionId)).rejects.toThrow(/no export session/);

@@ -241,12 +241,32 @@ class PictureReader {
   }
 }
 
-/** Writes a picture; resolves when the stream takes more, calls `written` once the bytes are out (the buffer may then be reused). */
+/**
+ * Writes a picture; resolves when the stream takes more, calls `written` once the bytes are out
+ * (the buffer may then be reused). A stream that closes or fails (ffmpeg killed on cancel)
+ * rejects instead of waiting for a 'drain' that never comes.
+ */
 function write(stream: NodeJS.WritableStream, pic: Buffer, written: () => void): Promise<void> {
-  return new Promise((r) => {
+  return new Promise((resolveWrite, reject) => {
+    const gone = () => {
+      cleanup();
+      reject(new NativeExportError('the encoder stopped taking pictures'));
+    };
+    const drained = () => {
+      cleanup();
+      resolveWrite();
+    };
+    const cleanup = () => {
+      stream.removeListener('drain', drained);
+      stream.removeListener('close', gone);
+      stream.removeListener('error', gone);
+    };
+    if ((stream as NodeJS.WritableStream & { destroyed?: boolean }).destroyed) return gone();
     const ok = stream.write(pic, (e) => (e ? undefined : written()));
-    if (ok) r();
-    else stream.once('drain', () => r());
+    if (ok) return resolveWrite();
+    stream.once('drain', drained);
+    stream.once('close', gone);
+    stream.once('error', gone);
   });
 }
 

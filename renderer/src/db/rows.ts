@@ -248,6 +248,8 @@ export interface ExportJobRow {
   overwrite?: boolean;
   /** Seconds of title card before each clip (export-clips/title-card.ts); absent or 0: none. */
   titleCardS?: number;
+  /** The host's native export session of the clip being encoded (stopped if a restart cuts it off). */
+  nativeSession?: string;
   createdAt: number;
   updatedAt: number;
 }

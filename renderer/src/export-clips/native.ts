@@ -33,6 +33,8 @@ export interface NativeClipRequest {
   onProgress?: (fraction: number, secondsLeft: number | undefined) => void;
   /** The canvas to read back (nativeOverlayCanvas; the overlay renderer may draw straight into it). */
   canvas?: OffscreenCanvas;
+  /** Told the host's session id once it exists (kept with the job, to stop it after a restart). */
+  onSession?: (sessionId: string) => void;
   /** Filled with milliseconds spent per stage (for the benchmark). */
   stats?: NativeStageStats;
 }
@@ -90,6 +92,7 @@ export async function exportClipNativeFromRenderer(host: HostApi, req: NativeCli
     ...(req.overwrite ? { overwrite: true } : {}),
   });
   const id = started.sessionId;
+  req.onSession?.(id);
   const t0 = performance.now();
   const report = (p: NativeClipProgress) => {
     const f = p.totalFrames > 0 ? p.encodedFrames / p.totalFrames : 0;

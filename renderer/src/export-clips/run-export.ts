@@ -143,10 +143,17 @@ export interface RunHooks {
   signalFor?: (jobId: number) => AbortSignal | undefined;
 }
 
-/** Jobs found 'running' were cut off by a restart: they go back to the queue. */
-export async function requeueInterrupted(db: WhistlemarkDb, projectId: number): Promise<number> {
+/**
+ * Jobs found 'running' were cut off by a restart: they go back to the queue. A native encode
+ * the restart abandoned is stopped, so its temporary file goes at once (the host would
+ * otherwise drop it only after its idle timeout).
+ */
+export async function requeueInterrupted(db: WhistlemarkDb, projectId: number, host?: HostApi): Promise<number> {
   const stuck = (await db.exportJobs.where('state').equals('running').toArray()).filter((j) => j.projectId === projectId);
-  for (const j of stuck) await db.exportJobs.update(j.id!, { state: 'queued', message: 'resumed after a restart', updatedAt: Date.now() });
+  for (const j of stuck) {
+    if (j.nativeSession && host) await host.nativeClipCancel(j.nativeSession).catch(() => undefined);
+    await db.exportJobs.update(j.id!, { state: 'queued', message: 'resumed after a restart', nativeSession: undefined, updatedAt: Date.now() });
+  }
   return stuck.length;
 }
 
@@ -229,7 +236,9 @@ async function runJob(db: WhistlemarkDb, host: HostApi, job: ExportJobRow, hooks
             overwrite: !!job.overwrite,
             ...(signal ? { signal } : {}),
             onProgress,
+            onSession: (nativeSession) => void set({ nativeSession }),
           });
+          await set({ nativeSession: undefined });
         } else {
           const bytes = await exportClipEmbedded({
             source: ctx.footageUrl,

@@ -52,7 +52,7 @@ export function startQueue(db: WhistlemarkDb, host: HostApi, projectId: number, 
 export async function resumeAfterRestart(db: WhistlemarkDb, host: HostApi, projectId: number, say: (m: string) => void): Promise<void> {
   if (!resumedProjects.has(projectId)) {
     resumedProjects.add(projectId);
-    const n = await requeueInterrupted(db, projectId);
+    const n = await requeueInterrupted(db, projectId, host);
     if (n) say(n === 1 ? 'An export cut off by the restart resumes with its next clip (see Reels).' : `${n} exports cut off by the restart resume with their next clips (see Reels).`);
   }
   startQueue(db, host, projectId, say);
