@@ -515,8 +515,14 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
   const live = useLiveProgress();
   const [conflict, setConflict] = useState<{ names: string[]; dir: string } | null>(null);
   const dir = folder ?? folderSetting ?? '';
-  const options = useLive(() => db.settings.get(`exportOptions:${projectId}`).then((r) => exportOptions(r?.value)), [projectId]) ?? exportOptions(undefined);
-  const setOptions = (patch: Partial<ExportOptions>) => void db.settings.put({ key: `exportOptions:${projectId}`, value: { ...options, ...patch } });
+  const stored = useLive(() => db.settings.get(`exportOptions:${projectId}`).then((r) => exportOptions(r?.value)), [projectId]) ?? exportOptions(undefined);
+  // The control shows the change at once; the stored copy catches up a moment later.
+  const [changed, setChanged] = useState<Partial<ExportOptions>>({});
+  const options = { ...stored, ...changed };
+  const setOptions = (patch: Partial<ExportOptions>) => {
+    setChanged((c) => ({ ...c, ...patch }));
+    void db.settings.put({ key: `exportOptions:${projectId}`, value: { ...options, ...patch } });
+  };
   const [nativeAvailable, setNativeAvailable] = useState(false);
   useEffect(() => {
     host.info().then((i) => setNativeAvailable(!!i.nativeFfmpeg), () => setNativeAvailable(false));
