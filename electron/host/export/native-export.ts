@@ -23,6 +23,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { link, rename, stat, unlink } from 'node:fs/promises';
+import { setPriority } from 'node:os';
 import { join, resolve } from 'node:path';
 import { blendRunsI420, decodeRuns, defaultMatrix, fillBlackI420, i420Size, type YuvMatrix } from '../../../engine/overlay-frames/index.ts';
 import { checkFileName } from '../atomic-save.ts';
@@ -278,6 +279,10 @@ function runPipeline(exe: string, req: NativeClipRequest, outPath: string): Prom
   const size = i420Size(width, height);
   const decoder = spawn(exe, decoderArgs(req), { stdio: ['ignore', 'pipe', 'pipe'] });
   const encoder = spawn(exe, encoderArgs(req, outPath), { stdio: ['pipe', 'ignore', 'pipe'] });
+  // The renderer drawing the overlay is one thread on the critical path, ffmpeg many that can
+  // take whatever is left: give ffmpeg the lower priority, or on a small machine its threads
+  // crowd out the drawing and the encoder then waits for frames.
+  for (const c of [decoder, encoder]) if (c.pid) try { setPriority(c.pid, 10); } catch { /* not allowed here: run as is */ }
   const decLog: string[] = [];
   const encLog: string[] = [];
   watchStderr(decoder, decLog);

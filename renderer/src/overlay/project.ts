@@ -13,6 +13,9 @@ export interface Projector {
   scaleAt(x: number, y: number): number;
   /** Marker size unit: 1 at 720 output lines, so markers read the same at 720p and 1080p. */
   unit: number;
+  /** Output size in pixels (what is worth drawing). */
+  width: number;
+  height: number;
 }
 
 export function viewProjector(scene: OverlayScene): Projector {
@@ -28,6 +31,8 @@ export function viewProjector(scene: OverlayScene): Projector {
       project: (x, y) => [ox + x * s, oy - y * s],
       scaleAt: () => s,
       unit,
+      width: scene.width,
+      height: scene.height,
     };
   }
   const unit = Math.max(0.5, scene.height / 720);
@@ -47,5 +52,7 @@ export function viewProjector(scene: OverlayScene): Projector {
       return a && b ? Math.hypot(b[0] - a[0], b[1] - a[1]) : 0;
     },
     unit,
+    width: scene.width,
+    height: scene.height,
   };
 }
