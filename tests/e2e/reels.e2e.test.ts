@@ -63,8 +63,9 @@ describe('Reels screen', () => {
     await shot(page, 'reels-01-corners');
 
     const exp = page.getByRole('region', { name: 'Export' });
-    // ffmpeg is on this machine (Debian's): the faster native path is the default.
-    await expect.poll(() => exp.getByLabel('Encoder').inputValue()).toBe('native');
+    // The built-in encoder is the default; Debian's ffmpeg is on this machine, so the native path is offered.
+    await expect.poll(() => exp.getByLabel('Encoder').inputValue()).toBe('embedded');
+    await exp.getByLabel('Encoder').selectOption('native');
     await exp.getByLabel('Export folder').fill(out);
     await exp.getByRole('button', { name: /Export reel/ }).click();
     const job = exp.getByRole('list', { name: 'Export queue' }).getByRole('listitem').first();
