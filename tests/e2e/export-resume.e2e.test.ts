@@ -168,4 +168,29 @@ describe('export queue across a restart', () => {
     expect(app.outsideRequests).toEqual([]);
     expect(app.pageErrors).toEqual([]);
   }, 480_000);
+
+  it('with ffmpeg on this machine: a reload mid-clip stops the abandoned encode (no temporary file stays) and the job resumes', async () => {
+    const { page } = app;
+    const dir = join(scratch, 'resume-native');
+    execFileSync('mkdir', ['-p', dir]);
+    const exp = page.getByRole('region', { name: 'Export' });
+    await exp.getByLabel('Encoder').selectOption('native');
+    await exportInto(page, dir);
+    const job = jobRow(page);
+    await expect
+      .poll(async () => (listing(dir).some((f) => /-01-.*\.mp4$/.test(f)) && listing(dir).some((f) => f.startsWith('.') && /-02-/.test(f)) ? 'second clip encoding' : stateOf(job)), { timeout: 180_000, interval: 100 })
+      .toBe('second clip encoding');
+    await page.reload();
+    await page.getByRole('status').filter({ hasText: 'An export cut off by the restart resumes with its next clip' }).waitFor({ timeout: 60_000 });
+    const resumed = jobRow(page);
+    await expect.poll(() => stateOf(resumed), { timeout: 240_000, interval: 500 }).toMatch(/^done: [\s\S]*ffmpeg on this machine/);
+    // The abandoned encode was stopped on resume; left alone, the host would keep its
+    // temporary file until its 120 s idle timeout, long after this job is done.
+    const files = listing(dir);
+    expect(files.filter((f) => f.startsWith('.') || f.includes('partial'))).toEqual([]);
+    expect(files.filter((f) => f.endsWith('.mp4'))).toHaveLength(3);
+    const sidecar = JSON.parse(readFileSync(join(dir, 'resume-check.json'), 'utf8')) as { clips: { durationS: number }[] };
+    files.filter((f) => f.endsWith('.mp4')).forEach((f, i) => expect(Math.abs(probe(join(dir, f)).durationS - sidecar.clips[i].durationS)).toBeLessThanOrEqual(FRAME_S + 1e-6));
+    expect(app.pageErrors).toEqual([]);
+  }, 480_000);
 });
