@@ -1,6 +1,5 @@
 /** Top bar: the match project switcher, creator and delete (with confirmation). */
 import { useEffect, useState } from 'react';
-import { isTypingTarget } from './keys.ts';
 import type { WhistlemarkDb } from '../db/database.ts';
 import type { ProjectRow } from '../db/rows.ts';
 import { createProject, deleteProject } from '../db/store.ts';
@@ -19,7 +18,8 @@ export function ProjectBar({ projects, currentId }: { projects: ProjectRow[]; cu
   const current = projects.find((p) => p.id === currentId);
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
-      if (e.key !== 'n' || e.ctrlKey || e.metaKey || e.altKey || isTypingTarget(e.target) || document.querySelector('dialog[open]')) return;
+      // Alt+N, like Alt+1…5 for the screens: a plain N is "next proposal" on Sync and Review.
+      if (e.code !== 'KeyN' || !e.altKey || e.ctrlKey || e.metaKey || e.shiftKey || document.querySelector('dialog[open]')) return;
       e.preventDefault();
       setCreating(true);
     };
@@ -51,8 +51,8 @@ export function ProjectBar({ projects, currentId }: { projects: ProjectRow[]; cu
           ))}
         </select>
       </label>
-      <button type="button" onClick={() => setCreating(true)} title="New match project (N)">
-        New match project <kbd>N</kbd>
+      <button type="button" onClick={() => setCreating(true)} title="New match project (Alt+N)">
+        New match project <kbd>Alt+N</kbd>
       </button>
       <button type="button" className="quiet danger-text" disabled={!current} onClick={() => setDeleting(true)}>
         Delete project…
