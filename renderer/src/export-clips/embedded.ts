@@ -34,11 +34,10 @@ export interface OverlayInput {
   eventFit?: ClockFit;
 }
 
-export interface EmbeddedClipRequest {
-  /** URL of the footage (the host serves opened files, byte ranges included) or its bytes. */
-  source: string | Blob;
+/** What either export path needs to draw and report one clip. */
+export interface ClipExportBase {
   plan: ClipPlan;
-  /** Footage PTS table (the probe's), to find each decoded frame's index. */
+  /** Footage PTS table (the probe's), to find each frame's index. */
   pts: ArrayLike<number>;
   overlay?: OverlayInput;
   width: number;
@@ -52,6 +51,11 @@ export interface EmbeddedClipRequest {
   signal?: AbortSignal;
   /** fraction 0..1 and seconds left (estimated from the speed so far). */
   onProgress?: (fraction: number, secondsLeft: number | undefined) => void;
+}
+
+export interface EmbeddedClipRequest extends ClipExportBase {
+  /** URL of the footage (the host serves opened files, byte ranges included) or its bytes. */
+  source: string | Blob;
 }
 
 export class ExportCancelled extends Error {

@@ -9,28 +9,17 @@
  */
 import type { HostApi, NativeClipProgress, SaveResult } from '../../../shared-types/host-api.ts';
 import { encodeRuns, packBatch } from '../../../engine/overlay-frames/index.ts';
-import { ExportCancelled, type OverlayInput } from './embedded.ts';
+import { ExportCancelled, type ClipExportBase } from './embedded.ts';
 import { overlayPainter } from './frame-overlay.ts';
-import type { ClipPlan } from './plan.ts';
-import { drawTitleCard, titleCardFrames, type TitleCard } from './title-card.ts';
+import { drawTitleCard, titleCardFrames } from './title-card.ts';
 
-export interface NativeClipRequest {
+export interface NativeClipRequest extends ClipExportBase {
   fileId: string;
-  plan: ClipPlan;
-  pts: ArrayLike<number>;
   /** Nominal frame rate of the footage (the encoder's input rate). */
   fps: number;
-  overlay?: OverlayInput;
-  width: number;
-  height: number;
-  caption?: boolean;
-  titleS?: number;
-  titleCard?: TitleCard;
   directory: string;
   name: string;
   overwrite?: boolean;
-  signal?: AbortSignal;
-  onProgress?: (fraction: number, secondsLeft: number | undefined) => void;
   /** The canvas to read back (nativeOverlayCanvas; the overlay renderer may draw straight into it). */
   canvas?: OffscreenCanvas;
   /** Told the host's session id once it exists (kept with the job, to stop it after a restart). */
