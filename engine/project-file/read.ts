@@ -47,7 +47,14 @@ export async function readProjectFile(bytes: Uint8Array, fileName = 'the file'):
   if (manifest.formatVersion > FORMAT_VERSION)
     throw new ProjectFileError(`${fileName} was written by a newer Whistlemark (${manifest.writtenBy}, project format ${manifest.formatVersion}); this one reads format ${FORMAT_VERSION}. Update Whistlemark to open it.`, 'newer');
 
-  for (const [name, want] of Object.entries(manifest.entries ?? {})) {
+  // A changed byte can leave the manifest valid JSON of the wrong shape: check it before use.
+  const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+  if (!isRecord(manifest.entries) || !Object.values(manifest.entries).every((w) => isRecord(w) && typeof w.size === 'number' && typeof w.sha256 === 'string'))
+    throw new ProjectFileError(`${fileName} is damaged: its ${MANIFEST_ENTRY} has no usable list of entries and checksums. ${WHAT_TO_DO}`, 'damaged');
+  if (!isRecord(manifest.tables) || !Object.values(manifest.tables).every((t) => isRecord(t) && typeof t.entry === 'string' && typeof t.rows === 'number'))
+    throw new ProjectFileError(`${fileName} is damaged: its ${MANIFEST_ENTRY} has no usable list of tables. ${WHAT_TO_DO}`, 'damaged');
+
+  for (const [name, want] of Object.entries(manifest.entries)) {
     const got = zip[name];
     if (!got) throw new ProjectFileError(`${fileName} is damaged: the entry ${name} listed in its manifest is missing. ${WHAT_TO_DO}`, 'damaged');
     if (got.byteLength !== want.size || (await sha256Hex(got)) !== want.sha256)

@@ -108,6 +108,16 @@ describe('project file format', () => {
     expect(refused).toBeGreaterThan(0);
   });
 
+  it('refuses a manifest that is valid JSON of the wrong shape (a changed byte in a key)', async () => {
+    const files = unzipSync(await writeProjectFile(smallTables(), { writtenBy: 'w', databaseVersion: 3 }));
+    const m = JSON.parse(new TextDecoder().decode(files['manifest.json']));
+    const withManifest = (v: unknown) => zipSync({ ...files, 'manifest.json': strToU8(JSON.stringify(v)) });
+    const { entries, ...noEntries } = m;
+    await expectRefused(withManifest({ ...noEntries, '?ntries': entries }), 'damaged', /no usable list of entries/);
+    await expectRefused(withManifest({ ...m, entries: { ...entries, 'tables/projects.json': 5 } }), 'damaged', /no usable list of entries/);
+    await expectRefused(withManifest({ ...m, tables: { ...m.tables, projects: { entry: 3 } } }), 'damaged', /no usable list of tables/);
+  });
+
   it('refuses an entry whose checksum does not match, naming it', async () => {
     const files = unzipSync(await writeProjectFile(smallTables(), { writtenBy: 'w', databaseVersion: 3 }));
     files['tables/projects.json'] = strToU8('[{"id":1,"title":"changed"}]');
