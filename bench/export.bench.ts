@@ -22,9 +22,10 @@
  *   720p  embedded 1.31× realtime · native 0.62× · plain ffmpeg 2.86× · ffmpeg.wasm plain 0.80×
  *   1080p embedded 0.89× · native 0.32× · plain ffmpeg 1.48×
  * An earlier 4 s run measured embedded 2.47× at 720p; figures swing with the span and load.
- * Neither goal is met here. The native path's host half is cheap (a synthetic overlay of 12%
- * of the pixels: 1.96 s against 1.88 s plain for 100 frames, 0.96×), so the limit is the
- * renderer: drawing every layer and reading the canvas back (getImageData) cost 40–50 ms a
+ * Neither goal is met here. The native path's host half alone (the "host half only" row, a
+ * ready overlay of 8–9% of the pixels) ran at 0.52× plain at 720p and 0.70× at 1080p in a 4 s
+ * run (0.96× in a one-off 100-frame script), so the host side costs too, but the larger limit
+ * is the renderer: drawing every layer and reading the canvas back (getImageData) cost 40–50 ms a
  * frame at 720p while ffmpeg's threads take both cores, against 15–20 ms alone. So the app
  * keeps the built-in encoder as the default and offers ffmpeg as a choice. The first run
  * also found the length-and-width layer drawing thousands of off-screen dashes (21 ms of a

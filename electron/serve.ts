@@ -219,7 +219,7 @@ export async function startBrowserHost(opts: BrowserHostOptions): Promise<Browse
         if (size > MAX_FRAME_BATCH) throw new HttpError(413, `nativeClipFrames: more than ${MAX_FRAME_BATCH >> 20} MB in one batch; send fewer frames per call`);
         chunks.push(chunk);
       }
-      // Buffer.concat gives a fresh, 4-byte-aligned buffer: the frames are read as 32-bit words.
+      // The frames are read as 32-bit words; wordsOf copies the batch if this view is not aligned.
       const body = Buffer.concat(chunks);
       const batch = new Uint8Array(body.buffer, body.byteOffset, body.byteLength);
       value = await service.api.nativeClipFrames(...validateArgs('nativeClipFrames', [sessionId, batch]));

@@ -115,11 +115,11 @@ export class NativeSessions {
     try {
       frames = unpackBatch(wordsOf(batch));
     } catch (e) {
-      if (e instanceof OverlayFrameError) this.cancel(sessionId);
+      if (e instanceof OverlayFrameError) void this.cancel(sessionId);
       throw e;
     }
     if (s.received + frames.length > s.total) {
-      this.cancel(sessionId);
+      void this.cancel(sessionId);
       throw new Error(`nativeClipFrames: ${s.received + frames.length} overlay frames sent for a clip of ${s.total} pictures; the export was stopped`);
     }
     s.received += frames.length;

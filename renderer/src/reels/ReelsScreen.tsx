@@ -522,6 +522,8 @@ function ExportPanel({ reelId, reelTitle, projectId, clips, exportCtx, ctxProble
   const stored = useLive(() => db.settings.get(`exportOptions:${projectId}`).then((r) => exportOptions(r?.value)), [projectId]) ?? exportOptions(undefined);
   // The control shows the change at once; the stored copy catches up a moment later.
   const [changed, setChanged] = useState<Partial<ExportOptions>>({});
+  // Another project has its own stored options: drop this one's unsaved echo.
+  useEffect(() => setChanged({}), [projectId]);
   const options = { ...stored, ...changed };
   const setOptions = (patch: Partial<ExportOptions>) => {
     setChanged((c) => ({ ...c, ...patch }));
